@@ -16,7 +16,8 @@ export const MEMORY_CAP_BYTES = 2 * 1024 ** 3;
 
 export function engineMemoryBytes(m: MemoryInput): number {
   const fields = 3 * m.nx * m.ny * 4;
-  const psi = m.cells > 0 ? 4 * (2 * m.cells * m.ny + 2 * m.cells * m.nx) * 4 : 0;
+  // ψ for Ez∂x and Hy in the x strips (2·cells columns × ny), for Ez∂y and Hx in the y strips (2·cells rows × nx)
+  const psi = m.cells > 0 ? 2 * (2 * m.cells * m.ny + 2 * m.cells * m.nx) * 4 : 0;
   const coefficients = 6 * (m.nx + m.ny) * 4;
   const source = m.steps * 8;
   const series = m.probes * (m.steps + 1) * 4;

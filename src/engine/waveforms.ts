@@ -86,14 +86,14 @@ export function waveformSpectrum(w: Waveform, amplitude: number, f: number): [nu
   switch (w.kind) {
     case 'gaussian': {
       const tau = w.tau as number;
-      re = Math.sqrt(Math.PI) * tau * Math.exp(-((omega * tau) / 2) ** 2);
+      re = Math.sqrt(Math.PI) * tau * Math.exp(-(((omega * tau) / 2) ** 2));
       break;
     }
     case 'modulated-gaussian': {
       // sin(ω0 t) = (e^{jω0t} − e^{−jω0t})/(2j): G(ω−ω0)/(2j) − G(ω+ω0)/(2j)
       const tau = w.tau as number;
       const w0 = 2 * Math.PI * (w.f0 as number);
-      const g = (x: number) => Math.sqrt(Math.PI) * tau * Math.exp(-((x * tau) / 2) ** 2);
+      const g = (x: number) => Math.sqrt(Math.PI) * tau * Math.exp(-(((x * tau) / 2) ** 2));
       im = -(g(omega - w0) - g(omega + w0)) / 2;
       break;
     }

@@ -1,0 +1,215 @@
+import { EPS0, MU0 } from '../scenario/constants.ts';
+import { layoutOf, type Layout } from '../scenario/layout.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { cpmlAxisTables } from './cpml-profile.ts';
+import { engineMemoryBytes } from './memory.ts';
+import { waveformValue } from './waveforms.ts';
+import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
+
+/** A complex number as [re, im]. */
+export type Complex = [number, number];
+
+export interface SimulationOptions {
+  /** Frequency of the optional full-grid running DFT (for the page's error map), Hz. */
+  fullGridFrequency?: number;
+}
+
+// Indices of engine buffers, as in assembly/engine.ts `pointerTo`.
+const PTR = {
+  ez: 0, hx: 1, hy: 2,
+  bEx: 3, aEx: 4, gEx: 5, bHx: 6, aHx: 7, gHx: 8,
+  bEy: 9, aEy: 10, gEy: 11, bHy: 12, aHy: 13, gHy: 14,
+  source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
+  fullRe: 21, fullIm: 22,
+} as const;
+
+/**
+ * One FDTD run of a validated scenario: builds the coefficient tables, drives the wasm
+ * engine in batches of steps and reads back probe series and running DFTs.
+ * DFT points are the probes first, then every node of every line, in order.
+ */
+export class Simulation {
+  readonly scenario: Scenario;
+  readonly layout: Layout;
+  readonly dt: number;
+  readonly memoryBytes: number;
+  readonly fullGridFrequency: number | undefined;
+  private engine: EngineExports | undefined;
+  private readonly lineOffsets: number[];
+  private readonly pointCount: number;
+
+  /** Loads (once) the engine module and builds a simulation. */
+  static async create(scenario: Scenario, options: SimulationOptions = {}): Promise<Simulation> {
+    return new Simulation(await loadEngineModule(), scenario, options);
+  }
+
+  constructor(module: WebAssembly.Module, scenario: Scenario, options: SimulationOptions = {}) {
+    this.scenario = scenario;
+    const layout = (this.layout = layoutOf(scenario));
+    const dt = (this.dt = layout.dt);
+    const { nx, ny, dx, dy } = layout;
+    const L = scenario.absorber.cells;
+    const epsR = scenario.medium.epsR;
+    this.fullGridFrequency = options.fullGridFrequency;
+    this.lineOffsets = [];
+    let points = layout.probes.length;
+    for (const line of layout.lines) {
+      this.lineOffsets.push(points);
+      points += line.nodes.length;
+    }
+    this.pointCount = points;
+    const frequencies = scenario.frequencies;
+    this.memoryBytes = engineMemoryBytes({
+      nx, ny, cells: L, steps: scenario.steps, probes: layout.probes.length,
+      dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
+    });
+
+    const engine = instantiateEngine(module);
+    const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length,
+      options.fullGridFrequency !== undefined ? 1 : 0);
+    if (claimed === 0) {
+      throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
+    }
+    this.engine = engine;
+
+    const eps = EPS0 * epsR;
+    engine.setUpdateCoefficients(
+      dt / (eps * dx), dt / (eps * dy), dt / (MU0 * dx), dt / (MU0 * dy),
+      dt / (eps * dx * dy), layout.source.j * nx + layout.source.i,
+      options.fullGridFrequency !== undefined ? 2 * Math.PI * options.fullGridFrequency * dt : 0,
+    );
+
+    const x = cpmlAxisTables(nx, scenario.absorber, dx, dt, epsR);
+    const y = cpmlAxisTables(ny, scenario.absorber, dy, dt, epsR);
+    this.f32(PTR.bEx, nx).set(x.bE); this.f32(PTR.aEx, nx).set(x.aE); this.f32(PTR.gEx, nx).set(x.gE);
+    this.f32(PTR.bHx, nx).set(x.bH); this.f32(PTR.aHx, nx).set(x.aH); this.f32(PTR.gHx, nx).set(x.gH);
+    this.f32(PTR.bEy, ny).set(y.bE); this.f32(PTR.aEy, ny).set(y.aE); this.f32(PTR.gEy, ny).set(y.gE);
+    this.f32(PTR.bHy, ny).set(y.bH); this.f32(PTR.aHy, ny).set(y.aH); this.f32(PTR.gHy, ny).set(y.gH);
+
+    const current = this.f64(PTR.source, scenario.steps);
+    for (let n = 0; n < scenario.steps; n++) {
+      current[n] = waveformValue(scenario.source.waveform, scenario.source.amplitude, (n + 0.5) * dt);
+    }
+    const probeIndex = this.i32(PTR.probeIndex, layout.probes.length);
+    layout.probes.forEach((p, k) => { probeIndex[k] = p.j * nx + p.i; });
+    const pointIndex = this.i32(PTR.pointIndex, points);
+    layout.probes.forEach((p, k) => { pointIndex[k] = p.j * nx + p.i; });
+    layout.lines.forEach((line, l) => {
+      line.nodes.forEach((node, k) => { pointIndex[this.lineOffsets[l] + k] = node.j * nx + node.i; });
+    });
+    const omegaDt = this.f64(PTR.omegaDt, frequencies.length);
+    frequencies.forEach((f, k) => { omegaDt[k] = 2 * Math.PI * f * dt; });
+  }
+
+  private live(): EngineExports {
+    if (!this.engine) throw new Error('simulation has been disposed');
+    return this.engine;
+  }
+  private f32(which: number, length: number): Float32Array {
+    const e = this.live();
+    return new Float32Array(e.memory.buffer, e.pointerTo(which), length);
+  }
+  private f64(which: number, length: number): Float64Array {
+    const e = this.live();
+    return new Float64Array(e.memory.buffer, e.pointerTo(which), length);
+  }
+  private i32(which: number, length: number): Int32Array {
+    const e = this.live();
+    return new Int32Array(e.memory.buffer, e.pointerTo(which), length);
+  }
+
+  /** Time steps taken so far; Ez samples n = 0..stepsDone exist. */
+  get stepsDone(): number {
+    return this.live().stepsDone();
+  }
+
+  /** Steps still to take before the scenario's `steps` is reached. */
+  get stepsLeft(): number {
+    return this.scenario.steps - this.stepsDone;
+  }
+
+  /** Advances up to `count` steps (never beyond the scenario's `steps`); returns steps taken. */
+  step(count: number): number {
+    const n = Math.max(0, Math.min(Math.floor(count), this.stepsLeft));
+    if (n > 0) this.live().step(n);
+    return n;
+  }
+
+  /** Runs to the end in batches, calling `onProgress(done, total)` between batches. */
+  run(onProgress?: (done: number, total: number) => void, batch = 200): void {
+    while (this.stepsLeft > 0) {
+      this.step(batch);
+      onProgress?.(this.stepsDone, this.scenario.steps);
+    }
+  }
+
+  /** Live view of Ez (row-major, i fastest); valid until dispose. Copy it to keep it. */
+  ezView(): Float32Array {
+    return this.f32(PTR.ez, this.layout.nx * this.layout.ny);
+  }
+  /** Live views of Hx and Hy (same indexing as Ez). */
+  hxView(): Float32Array { return this.f32(PTR.hx, this.layout.nx * this.layout.ny); }
+  hyView(): Float32Array { return this.f32(PTR.hy, this.layout.nx * this.layout.ny); }
+
+  /** Largest |Ez| on the grid (NaN if any node is NaN). */
+  maxAbsEz(): number {
+    return this.live().maxAbsEz();
+  }
+
+  /** Ez at probe `p` for samples n = 0..stepsDone, V/m (a copy). */
+  probeSeries(p: number): Float32Array {
+    const length = this.scenario.steps + 1;
+    const all = this.f32(PTR.series, this.layout.probes.length * length);
+    return all.slice(p * length, p * length + this.stepsDone + 1);
+  }
+
+  private dftAt(point: number, f: number): Complex {
+    const d = this.f64(PTR.dft, 2 * this.pointCount * this.scenario.frequencies.length);
+    const k = 2 * (f * this.pointCount + point);
+    return [d[k], d[k + 1]];
+  }
+
+  /** Σ_{n=0..stepsDone} Ez[n]·e^{−jωn·dt} at probe `p`, frequency index `f`, V/m·(sample). */
+  probeDft(p: number, f: number): Complex {
+    return this.dftAt(p, f);
+  }
+
+  /** Same running DFT at node `k` of line `l`. */
+  lineDft(l: number, k: number, f: number): Complex {
+    return this.dftAt(this.lineOffsets[l] + k, f);
+  }
+
+  /**
+   * DFT of the injected current with its half-step timing,
+   * Σ_{n=0..stepsDone−1} I((n+½)dt)·e^{−jω(n+½)dt}, A·(sample), at frequency `freqHz`.
+   */
+  currentDft(freqHz: number): Complex {
+    const current = this.f64(PTR.source, this.scenario.steps);
+    const w = 2 * Math.PI * freqHz * this.dt;
+    let re = 0;
+    let im = 0;
+    const n = this.stepsDone;
+    for (let k = 0; k < n; k++) {
+      const phase = w * (k + 0.5);
+      re += current[k] * Math.cos(phase);
+      im -= current[k] * Math.sin(phase);
+    }
+    return [re, im];
+  }
+
+  /** The full-grid running DFT (re, im per node), or undefined when not requested. */
+  fullGridDft(): { re: Float32Array; im: Float32Array } | undefined {
+    if (this.fullGridFrequency === undefined) return undefined;
+    const size = this.layout.nx * this.layout.ny;
+    return { re: this.f32(PTR.fullRe, size), im: this.f32(PTR.fullIm, size) };
+  }
+
+  /** Releases the engine instance and its memory. */
+  dispose(): void {
+    this.engine = undefined;
+  }
+
+  get disposed(): boolean {
+    return this.engine === undefined;
+  }
+}

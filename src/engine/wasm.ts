@@ -1,0 +1,45 @@
+/**
+ * The one loader of build/engine.wasm for Node, the page and its workers. The module is
+ * compiled once per realm; each simulation gets its own instance (and so its own memory,
+ * released when the instance is dropped).
+ */
+
+export interface EngineExports {
+  memory: WebAssembly.Memory;
+  allocate(nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number): number;
+  setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number, fullOmegaDt: number): void;
+  pointerTo(which: number): number;
+  stepsDone(): number;
+  step(count: number): void;
+  maxAbsEz(): number;
+}
+
+const engineUrl = new URL('../../build/engine.wasm', import.meta.url);
+let compiled: Promise<WebAssembly.Module> | undefined;
+
+async function compileFrom(url: URL): Promise<WebAssembly.Module> {
+  if (url.protocol === 'file:') {
+    const fsName = 'node:fs/promises';
+    const fs = (await import(/* @vite-ignore */ fsName)) as typeof import('node:fs/promises');
+    const bytes = await fs.readFile(url).catch((e: NodeJS.ErrnoException) => {
+      throw new Error(`engine not built: ${url.pathname} is missing (${e.code}); run "npm run build:wasm"`);
+    });
+    return WebAssembly.compile(bytes);
+  }
+  const response = await fetch(url);
+  if (!response.ok) throw new Error(`engine could not be loaded from ${url.href}: HTTP ${response.status}`);
+  return WebAssembly.compileStreaming(response);
+}
+
+/** The compiled engine module (cached). Pass another URL to load a variant build. */
+export function loadEngineModule(url: URL = engineUrl): Promise<WebAssembly.Module> {
+  if (url !== engineUrl) return compileFrom(url);
+  compiled ??= compileFrom(engineUrl);
+  return compiled;
+}
+
+/** A fresh engine instance with its own memory. */
+export function instantiateEngine(module: WebAssembly.Module): EngineExports {
+  const instance = new WebAssembly.Instance(module, {});
+  return instance.exports as unknown as EngineExports;
+}
