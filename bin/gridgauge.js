@@ -1,0 +1,8 @@
+#!/usr/bin/env node
+// The gridgauge command. Node 20 cannot load TypeScript itself, so the sources run through
+// tsx's loader; the engine itself is build/engine.wasm (npm install builds it).
+import { register } from 'tsx/esm/api';
+
+register();
+const { main } = await import('../src/cli/main.ts');
+process.exitCode = await main(process.argv.slice(2));

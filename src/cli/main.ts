@@ -1,0 +1,173 @@
+import { mkdir, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { collectResults, type RunResults } from '../compare/results.ts';
+import { Simulation } from '../engine/simulation.ts';
+import { jsonForOutput } from '../io/csv.ts';
+import { runFiles } from '../io/outputs.ts';
+import { formatBytes, formatSI, formatSig } from '../io/units.ts';
+import { deriveQuantities } from '../scenario/derived.ts';
+import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
+import { InvalidInput, loadScenarioFile } from './load.ts';
+import { ProgressBar } from './progress.ts';
+
+const HELP = `gridgauge — check FDTD cell size, time step and CPML absorbers against the exact
+field of a pulsed line current (2D TMz Yee grid, WebAssembly engine).
+
+Usage:
+  gridgauge run FILE [--out DIR] [--json]
+      Run the scenario; print FDTD-vs-exact errors per probe. With --out, write
+      timeseries.csv, spectra.csv, lines.csv and summary.json to DIR.
+      --json prints summary.json on stdout instead of the table. Ctrl-C stops the run
+      and still writes what was computed.
+  gridgauge check FILE [--json]
+      Validate the scenario and print derived quantities (dt, cells per wavelength,
+      stability margin, memory).
+  gridgauge absorber-study FILE [--target DB] [--out DIR] [--json] [--emit DIR]
+      Measure CPML reflection for a range of layer settings; recommend the thinnest
+      layer that meets the target (default -60 dB).
+  gridgauge resolution-study FILE --size WAVELENGTHS --budget DEGREES [--out DIR] [--json] [--emit DIR]
+      Measure phase error per wavelength against cells per wavelength; recommend the
+      coarsest cell that keeps the phase error across SIZE within BUDGET.
+  gridgauge bench [--json]
+      Measure engine speed (Mcells/s) against a plain TypeScript kernel.
+
+Options take a value as "--name value" or "--name=value".
+Exit codes: 0 success, 2 invalid input, 1 failure, 130 interrupted (files still written).
+Results check numerical method only; they are not evidence for RF-exposure or EMC compliance.`;
+
+/** Wall-clock seconds since `t0` (performance.now()). */
+const secondsSince = (t0: number) => (performance.now() - t0) / 1000;
+
+async function writeFiles(dir: string, files: Record<string, string>): Promise<void> {
+  await mkdir(dir, { recursive: true });
+  for (const [name, text] of Object.entries(files)) await writeFile(join(dir, name), text);
+}
+
+function printProbeTable(r: RunResults, out: (line: string) => void): void {
+  if (r.probes.length === 0) out('no probes in this scenario: add "probes" to compare FDTD with the exact field');
+  for (const p of r.probes) {
+    out(`probe ${JSON.stringify(p.name)} at (${formatSI(p.x_m, 'm')}, ${formatSI(p.y_m, 'm')}), ρ = ${formatSI(p.rho_m, 'm')}` +
+      `, time-domain relErrMax ${formatSig(p.relErrMax, 3)}`);
+    if (p.spectra.length === 0) continue;
+    out('  frequency     ρ (λ)    |Ez/I| error   phase error   predicted');
+    for (let k = 0; k < p.spectra.length; k++) {
+      const s = p.spectra[k];
+      out(`  ${formatSI(s.f_Hz, 'Hz').padEnd(12)}${formatSig(p.rho_wavelengths[k], 3).padStart(7)}` +
+        `${`${formatSig(s.mag_err_dB, 3)} dB`.padStart(15)}${`${formatSig(s.phase_err_deg, 3)}°`.padStart(14)}` +
+        `${`${formatSig(s.predicted_phase_err_deg, 3)}°`.padStart(12)}`);
+    }
+  }
+  out('phase: arg(FDTD/exact) with e^{+jωt}; negative = the grid lags the exact wave.');
+}
+
+async function commandRun(args: ParsedArgs): Promise<number> {
+  const scenario = await loadScenarioFile(args.positional[0]);
+  const json = args.options.has('json');
+  const outDir = args.options.get('out') as string | undefined;
+  const t0 = performance.now();
+  const sim = await Simulation.create(scenario);
+  let interrupted = false;
+  const onSignal = () => { interrupted = true; };
+  process.on('SIGINT', onSignal);
+  const bar = new ProgressBar('run');
+  try {
+    const batch = Math.max(1, Math.min(500, Math.floor(4e7 / (sim.layout.nx * sim.layout.ny))));
+    while (sim.stepsLeft > 0 && !interrupted) {
+      sim.step(batch);
+      if (!Number.isFinite(sim.maxAbsEz())) throw new Error(`the field became infinite or NaN by step ${sim.stepsDone}; check grid.courant against the stability limit`);
+      bar.update(sim.stepsDone, scenario.steps, 'steps');
+      await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
+    }
+  } finally {
+    process.off('SIGINT', onSignal);
+  }
+  bar.done(interrupted ? `interrupted at step ${sim.stepsDone} of ${scenario.steps}; writing what was computed` : '');
+  const runSeconds = secondsSince(t0);
+  const results = collectResults(sim);
+  const files = runFiles(results, { run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies });
+  if (outDir) await writeFiles(outDir, files);
+  if (json) {
+    process.stdout.write(files['summary.json']);
+  } else {
+    const out = (line: string) => process.stdout.write(`${line}\n`);
+    out(`${sim.layout.nx} × ${sim.layout.ny} grid, ${results.steps} steps of ${formatSI(results.dt_s, 's')} in ${runSeconds.toFixed(2)} s`);
+    printProbeTable(results, out);
+    if (outDir) out(`wrote timeseries.csv, spectra.csv, lines.csv, summary.json to ${outDir}`);
+  }
+  sim.dispose();
+  return interrupted ? 130 : 0;
+}
+
+async function commandCheck(args: ParsedArgs): Promise<number> {
+  const scenario = await loadScenarioFile(args.positional[0]);
+  const d = deriveQuantities(scenario);
+  if (args.options.has('json')) {
+    process.stdout.write(jsonForOutput({ ok: true, derived: d }));
+    return 0;
+  }
+  const out = (line: string) => process.stdout.write(`${line}\n`);
+  out(`scenario is valid`);
+  for (const [key, value] of Object.entries(d)) {
+    const shown = typeof value === 'number'
+      ? key.endsWith('_bytes') ? `${formatBytes(value)} (${value} bytes)` : formatSig(value, 4)
+      : JSON.stringify(value);
+    out(`  ${key.padEnd(34)} ${shown}`);
+  }
+  return 0;
+}
+
+async function commandBench(args: ParsedArgs): Promise<number> {
+  const bench = await import('../engine/bench.ts');
+  const report = await bench.runBench({ onProgress: (msg: string) => process.stderr.write(`${msg}\n`) });
+  if (args.options.has('json')) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+  else process.stdout.write(`${bench.formatBenchReport(report)}\n`);
+  return 0;
+}
+
+async function commandStudy(verb: 'absorber-study' | 'resolution-study', args: ParsedArgs): Promise<number> {
+  const studies = await import('./study-commands.ts');
+  return verb === 'absorber-study' ? studies.absorberStudyCommand(args) : studies.resolutionStudyCommand(args);
+}
+
+const COMMANDS: Record<string, { valued: string[]; flags: string[]; run: (a: ParsedArgs) => Promise<number> }> = {
+  run: { valued: ['out'], flags: ['json'], run: commandRun },
+  check: { valued: [], flags: ['json'], run: commandCheck },
+  'absorber-study': { valued: ['target', 'out', 'emit', 'workers'], flags: ['json'], run: (a) => commandStudy('absorber-study', a) },
+  'resolution-study': { valued: ['size', 'budget', 'out', 'emit', 'workers', 'min-cells', 'max-cells'], flags: ['json'], run: (a) => commandStudy('resolution-study', a) },
+  bench: { valued: [], flags: ['json'], run: commandBench },
+};
+
+/** Runs the command line; returns the exit code. */
+export async function main(argv: readonly string[]): Promise<number> {
+  const [verb, ...rest] = argv;
+  if (!verb || verb === '--help' || verb === '-h' || verb === 'help') {
+    process.stdout.write(`${HELP}\n`);
+    return verb ? 0 : 2;
+  }
+  if (verb === '--version') {
+    process.stdout.write('gridgauge 0.1.0\n');
+    return 0;
+  }
+  const command = COMMANDS[verb];
+  try {
+    if (!command) throw new UsageError(`unknown command "${verb}"; the commands are ${Object.keys(COMMANDS).join(', ')} (see gridgauge --help)`);
+    if (rest.includes('--help') || rest.includes('-h')) {
+      process.stdout.write(`${HELP}\n`);
+      return 0;
+    }
+    return await command.run(parseArgs(rest, command.valued, command.flags));
+  } catch (e) {
+    if (e instanceof InvalidInput) {
+      for (const p of e.problems) process.stderr.write(`${p.path}: ${p.message}\n`);
+      if (rest.includes('--json')) process.stdout.write(jsonForOutput({ ok: false, problems: e.problems }));
+      return 2;
+    }
+    if (e instanceof UsageError) {
+      process.stderr.write(`gridgauge: ${e.message}\n`);
+      return 2;
+    }
+    process.stderr.write(`gridgauge: ${e instanceof Error ? e.message : String(e)}\n`);
+    if (process.env.GRIDGAUGE_DEBUG) console.error(e);
+    return 1;
+  }
+}

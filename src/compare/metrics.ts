@@ -1,0 +1,33 @@
+import { wrapDegrees } from '../exact/angles.ts';
+
+/**
+ * Magnitude error in dB and phase error in degrees of a measured complex value against a
+ * reference: 20·log10|m/r| and arg(m/r) wrapped to (−180°, 180°]. With the e^{+jωt}
+ * convention a lagging grid gives a negative phase error. NaN where undefined.
+ *
+ * @example
+ * complexRatioErrors([0, 1], [1, 0]); // { magDb: 0, phaseDeg: 90 }
+ */
+export function complexRatioErrors(measured: [number, number], reference: [number, number]): { magDb: number; phaseDeg: number } {
+  const [a, b] = measured;
+  const [c, d] = reference;
+  const den = c * c + d * d;
+  if (!(den > 0) || !Number.isFinite(den)) return { magDb: NaN, phaseDeg: NaN };
+  const re = (a * c + b * d) / den;
+  const im = (b * c - a * d) / den;
+  return {
+    magDb: 20 * Math.log10(Math.hypot(re, im)),
+    phaseDeg: wrapDegrees((Math.atan2(im, re) * 180) / Math.PI),
+  };
+}
+
+/** |measured/reference − 1| in dB, the error-map quantity (20·log10). */
+export function relativeErrorDb(measured: [number, number], reference: [number, number]): number {
+  const [a, b] = measured;
+  const [c, d] = reference;
+  const den = c * c + d * d;
+  if (!(den > 0)) return NaN;
+  const re = (a * c + b * d) / den - 1;
+  const im = (b * c - a * d) / den;
+  return 20 * Math.log10(Math.hypot(re, im));
+}

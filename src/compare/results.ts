@@ -1,0 +1,140 @@
+import type { Complex, Simulation } from '../engine/simulation.ts';
+import { predictedPhaseErrorDeg } from '../exact/dispersion.ts';
+import { wrapDegrees } from '../exact/angles.ts';
+import { lineCurrentTransfer } from '../exact/transfer.ts';
+import { exactTimeSeries } from '../exact/transient.ts';
+import { nodeDistance, type Node } from '../scenario/layout.ts';
+import { complexRatioErrors } from './metrics.ts';
+
+/** FDTD beside exact at one point and one frequency, both as Ez/I in V/m per A. */
+export interface SpectrumPoint {
+  f_Hz: number;
+  rho_m: number;
+  fdtd: Complex;
+  exact: Complex;
+  mag_err_dB: number;
+  phase_err_deg: number;
+  /** From the Yee dispersion relation along the direction from the source; NaN above cutoff. */
+  predicted_phase_err_deg: number;
+}
+
+export interface ProbeResult {
+  name: string; i: number; j: number; x_m: number; y_m: number; rho_m: number;
+  /** ρ in wavelengths at each analysis frequency (medium wavelength). */
+  rho_wavelengths: number[];
+  /** max_n |fdtd − exact| / max_n |exact|; NaN where undefined (ρ = 0). */
+  relErrMax: number;
+  fdtd: Float32Array;
+  exact: Float64Array;
+  spectra: SpectrumPoint[];
+}
+
+export interface LinePoint extends SpectrumPoint { s_m: number; x_m: number; y_m: number; i: number; j: number }
+
+export interface LineResult { name: string; points: LinePoint[] }
+
+export interface RunResults {
+  dt_s: number;
+  /** Steps actually taken (less than the scenario's when a run was interrupted). */
+  steps: number;
+  stepsPlanned: number;
+  source: { i: number; j: number; x_m: number; y_m: number };
+  frequencies: number[];
+  probes: ProbeResult[];
+  lines: LineResult[];
+}
+
+/**
+ * The scheme's transfer function at a DFT point: DFT of Ez over the DFT of the injected
+ * current with its half-step timing, so no half-step phase bias remains (DESIGN.md, spectra.csv).
+ */
+function transferAt(dft: Complex, current: Complex): Complex {
+  const d = current[0] * current[0] + current[1] * current[1];
+  return [(dft[0] * current[0] + dft[1] * current[1]) / d, (dft[1] * current[0] - dft[0] * current[1]) / d];
+}
+
+/** Predicted phase error from the dispersion relation, wrapped; NaN where no real k̃ exists. */
+function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number): number {
+  if (!(rho > 0)) return NaN;
+  const { dx, dy, dt, c } = sim.layout;
+  const theta = Math.atan2((to.j - from.j) * dy, (to.i - from.i) * dx);
+  try {
+    return wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
+  } catch {
+    return NaN;
+  }
+}
+
+function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number): SpectrumPoint {
+  const fdtd = transferAt(dft, current);
+  const exact = lineCurrentTransfer(f, rho, sim.scenario.medium.epsR);
+  const { magDb, phaseDeg } = complexRatioErrors(fdtd, exact);
+  return {
+    f_Hz: f, rho_m: rho, fdtd, exact, mag_err_dB: magDb, phase_err_deg: phaseDeg,
+    predicted_phase_err_deg: predicted(sim, f, sim.layout.source, node, rho),
+  };
+}
+
+/** Relative time-domain error max_n |a − b| / max_n |b| (NaN when b is all zero or NaN). */
+export function relativeMaxError(fdtd: ArrayLike<number>, exact: ArrayLike<number>): number {
+  let diff = 0;
+  let peak = 0;
+  const n = Math.min(fdtd.length, exact.length);
+  for (let k = 0; k < n; k++) {
+    const e = exact[k];
+    if (!Number.isFinite(e)) return NaN;
+    diff = Math.max(diff, Math.abs(fdtd[k] - e));
+    peak = Math.max(peak, Math.abs(e));
+  }
+  return peak > 0 ? diff / peak : NaN;
+}
+
+/**
+ * Collects everything a run reports: probe series beside the exact transient field, probe
+ * and line spectra beside the Hankel transfer function, and the errors between them. Works
+ * on a finished or a stopped simulation (it uses the steps taken so far).
+ */
+export function collectResults(sim: Simulation): RunResults {
+  const { layout, scenario, dt } = sim;
+  const steps = sim.stepsDone;
+  const epsR = scenario.medium.epsR;
+  const freqs = scenario.frequencies;
+  const currents = freqs.map((f) => sim.currentDft(f));
+  const src = layout.source;
+
+  const probes = layout.probes.map((p, index): ProbeResult => {
+    const rho = nodeDistance(p, src, layout.dx, layout.dy);
+    const fdtd = sim.probeSeries(index);
+    const exact = rho > 0
+      ? exactTimeSeries(scenario.source.waveform, scenario.source.amplitude, rho, epsR, dt, steps + 1)
+      : new Float64Array(steps + 1).fill(NaN);
+    return {
+      name: p.name, i: p.i, j: p.j, x_m: p.x, y_m: p.y, rho_m: rho,
+      rho_wavelengths: freqs.map((f) => (rho * f) / layout.c),
+      relErrMax: relativeMaxError(fdtd, exact),
+      fdtd, exact,
+      spectra: freqs.map((f, k) => spectrumPoint(sim, f, currents[k], sim.probeDft(index, k), p, rho)),
+    };
+  });
+
+  const lines = layout.lines.map((line, l): LineResult => {
+    const first = line.nodes[0];
+    const points: LinePoint[] = [];
+    freqs.forEach((f, k) => {
+      line.nodes.forEach((node, n) => {
+        const rho = nodeDistance(node, src, layout.dx, layout.dy);
+        points.push({
+          ...spectrumPoint(sim, f, currents[k], sim.lineDft(l, n, k), node, rho),
+          s_m: nodeDistance(node, first, layout.dx, layout.dy), x_m: node.x, y_m: node.y, i: node.i, j: node.j,
+        });
+      });
+    });
+    return { name: line.name, points };
+  });
+
+  return {
+    dt_s: dt, steps, stepsPlanned: scenario.steps,
+    source: { i: src.i, j: src.j, x_m: src.x, y_m: src.y },
+    frequencies: freqs.slice(), probes, lines,
+  };
+}

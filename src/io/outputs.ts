@@ -1,0 +1,67 @@
+import type { RunResults, SpectrumPoint } from '../compare/results.ts';
+import { jsonForOutput, toCsv } from './csv.ts';
+
+/** The four files of a run, by file name, as text (DESIGN.md "Outputs of a run"). */
+export type RunFiles = Record<'timeseries.csv' | 'spectra.csv' | 'lines.csv' | 'summary.json', string>;
+
+/** `timeseries.csv`: t_s, then <probe>.fdtd and <probe>.exact per probe; one row per sample n = 0..steps. */
+export function timeseriesCsv(r: RunResults): string {
+  const header = ['t_s', ...r.probes.flatMap((p) => [`${p.name}.fdtd`, `${p.name}.exact`])];
+  const rows: number[][] = [];
+  for (let n = 0; n <= r.steps; n++) {
+    const row = [n * r.dt_s];
+    for (const p of r.probes) row.push(p.fdtd[n], p.exact[n]);
+    rows.push(row);
+  }
+  return toCsv(header, rows);
+}
+
+const spectrumColumns = (s: SpectrumPoint) => [
+  s.fdtd[0], s.fdtd[1], s.exact[0], s.exact[1], s.mag_err_dB, s.phase_err_deg,
+];
+
+/** `spectra.csv`: one row per probe per analysis frequency. */
+export function spectraCsv(r: RunResults): string {
+  const header = ['probe', 'f_Hz', 'rho_m', 'fdtd_re', 'fdtd_im', 'exact_re', 'exact_im', 'mag_err_dB', 'phase_err_deg', 'predicted_phase_err_deg'];
+  const rows = r.probes.flatMap((p) => p.spectra.map((s) => [p.name, s.f_Hz, s.rho_m, ...spectrumColumns(s), s.predicted_phase_err_deg]));
+  return toCsv(header, rows);
+}
+
+/** `lines.csv`: one row per line node per frequency, ordered by line, frequency, then s_m. */
+export function linesCsv(r: RunResults): string {
+  const header = ['line', 's_m', 'x_m', 'y_m', 'rho_m', 'f_Hz', 'fdtd_re', 'fdtd_im', 'exact_re', 'exact_im', 'mag_err_dB', 'phase_err_deg'];
+  const rows = r.lines.flatMap((l) => {
+    const sorted = l.points.slice().sort((a, b) => r.frequencies.indexOf(a.f_Hz) - r.frequencies.indexOf(b.f_Hz) || a.s_m - b.s_m);
+    return sorted.map((pt) => [l.name, pt.s_m, pt.x_m, pt.y_m, pt.rho_m, pt.f_Hz, ...spectrumColumns(pt)]);
+  });
+  return toCsv(header, rows);
+}
+
+/** The object written as `summary.json` (NaN becomes null on output). */
+export function summaryObject(r: RunResults, extra: Record<string, unknown> = {}) {
+  return {
+    dt_s: r.dt_s,
+    steps: r.steps,
+    source: r.source,
+    probes: r.probes.map((p) => ({
+      name: p.name, i: p.i, j: p.j, x_m: p.x_m, y_m: p.y_m, rho_m: p.rho_m, relErrMax: p.relErrMax,
+      rho_wavelengths: p.rho_wavelengths,
+      spectra: p.spectra.map((s) => ({
+        f_Hz: s.f_Hz, mag_err_dB: s.mag_err_dB, phase_err_deg: s.phase_err_deg, predicted_phase_err_deg: s.predicted_phase_err_deg,
+      })),
+    })),
+    stepsPlanned: r.stepsPlanned,
+    complete: r.steps === r.stepsPlanned,
+    ...extra,
+  };
+}
+
+/** All four files of a run as text. */
+export function runFiles(r: RunResults, extra: Record<string, unknown> = {}): RunFiles {
+  return {
+    'timeseries.csv': timeseriesCsv(r),
+    'spectra.csv': spectraCsv(r),
+    'lines.csv': linesCsv(r),
+    'summary.json': jsonForOutput(summaryObject(r, extra)),
+  };
+}

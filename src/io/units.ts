@@ -1,0 +1,38 @@
+const PREFIXES: [number, string][] = [
+  [1e12, 'T'], [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
+];
+
+/**
+ * A value with an SI prefix and `digits` significant figures, e.g. formatSI(1.0e10, 'Hz') →
+ * "10 GHz", formatSI(0.0015, 'm') → "1.5 mm". NaN and infinities print as "—" and "∞".
+ *
+ * @example
+ * formatSI(1.6678e-12, 's'); // "1.67 ps"
+ */
+export function formatSI(value: number, unit: string, digits = 3): string {
+  if (Number.isNaN(value)) return '—';
+  if (!Number.isFinite(value)) return `${value < 0 ? '−' : ''}∞ ${unit}`.trim();
+  if (value === 0) return `0 ${unit}`.trim();
+  const a = Math.abs(value);
+  const [scale, prefix] = PREFIXES.find(([s]) => a >= s * 0.9995) ?? PREFIXES[PREFIXES.length - 1];
+  return `${formatSig(value / scale, digits)} ${prefix}${unit}`.trim();
+}
+
+/** A number with `digits` significant figures, no exponent for everyday magnitudes. */
+export function formatSig(value: number, digits = 3): string {
+  if (Number.isNaN(value)) return '—';
+  if (!Number.isFinite(value)) return value < 0 ? '−∞' : '∞';
+  if (value === 0) return '0';
+  const a = Math.abs(value);
+  if (a >= 1e6 || a < 1e-4) return value.toExponential(digits - 1).replace('-', '−');
+  return Number(value.toPrecision(digits)).toString().replace('-', '−');
+}
+
+/** Bytes in binary units: "12.5 MiB". */
+export function formatBytes(bytes: number): string {
+  const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB'];
+  let v = bytes;
+  let u = 0;
+  while (v >= 1024 && u < units.length - 1) { v /= 1024; u++; }
+  return `${u === 0 ? v : v.toPrecision(3)} ${units[u]}`;
+}
