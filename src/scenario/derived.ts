@@ -1,0 +1,99 @@
+/**
+ * Quantities that follow from a valid scenario, for `gridgauge check` and the page. The
+ * field names are part of the `check --json` output: plain names, SI unit after an
+ * underscore, no suffix for pure numbers. Quantities that do not exist for the scenario
+ * (the wavelength at the centre frequency of a baseband gaussian) are NaN, which the JSON
+ * writer prints as null.
+ */
+import { engineMemoryBytes, MEMORY_CAP_BYTES } from '../engine/memory.ts';
+import { waveformBand } from '../engine/waveforms.ts';
+import { layoutOf, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
+import type { Scenario } from './types.ts';
+
+export interface DerivedQuantities {
+  /** Time step, s. */
+  dt_s: number;
+  /** Wave speed in the medium, c0/√εr, m/s. */
+  c_m_per_s: number;
+  /** Courant number S = c·dt/min(dx, dy), as given. */
+  courant: number;
+  /** 2D stability limit on S for these cells. */
+  stabilityLimit: number;
+  /** stabilityLimit − courant. */
+  stabilityMargin: number;
+  /** (stabilityLimit − courant)/stabilityLimit. */
+  stabilityMarginFraction: number;
+  /** Centre frequency: the waveform's f0, or the spectral peak (0 Hz) for a gaussian, Hz. */
+  f0_Hz: number;
+  /** Highest frequency at which the source spectrum is 40 dB below its peak, Hz. */
+  bandEdge_Hz: number;
+  /** Wavelength in the medium at f0_Hz, m (NaN when f0_Hz is 0). */
+  wavelengthAtF0_m: number;
+  /** Wavelength in the medium at bandEdge_Hz, m. */
+  wavelengthAtBandEdge_m: number;
+  /** Wavelength at f0_Hz over the coarser cell size max(dx, dy) (NaN when f0_Hz is 0). */
+  cellsPerWavelengthAtF0: number;
+  /** Wavelength at bandEdge_Hz over max(dx, dy). */
+  cellsPerWavelengthAtBandEdge: number;
+  /** Highest frequency the time step can sample, 1/(2·dt), Hz. */
+  nyquist_Hz: number;
+  /** Engine memory estimate, bytes. */
+  memory_bytes: number;
+  /** Cap on the memory estimate, bytes. */
+  memoryCap_bytes: number;
+  /** Interior nodes along x and y (the absorber layers excluded). */
+  interiorNx: number;
+  interiorNy: number;
+  /** Simulated time, steps·dt, s. */
+  duration_s: number;
+}
+
+/** Engine memory for a scenario, bytes: fields, absorber, probe series and running DFTs. */
+export function scenarioMemoryBytes(s: Scenario): number {
+  const layout = layoutOf(s);
+  const lineNodeCount = layout.lines.reduce((sum, l) => sum + l.nodes.length, 0);
+  return engineMemoryBytes({
+    nx: s.grid.nx, ny: s.grid.ny, cells: s.absorber.cells, steps: s.steps,
+    probes: s.probes.length,
+    dftPoints: s.probes.length + lineNodeCount,
+    frequencies: s.frequencies.length,
+    fullGridDft: false,
+  });
+}
+
+/**
+ * Derived quantities of a validated scenario.
+ *
+ * @example
+ * deriveQuantities(demoScenario()).cellsPerWavelengthAtF0; // ≈ 29.98 (10 GHz, 1 mm cells)
+ */
+export function deriveQuantities(s: Scenario): DerivedQuantities {
+  const { dx, dy, courant, nx, ny } = s.grid;
+  const c = waveSpeed(s.medium.epsR);
+  const dt = timeStep(courant, dx, dy, s.medium.epsR);
+  const limit = stabilityLimit(dx, dy);
+  const band = waveformBand(s.source.waveform);
+  const f0 = s.source.waveform.kind === 'gaussian' ? band.peakHz : (s.source.waveform.f0 as number);
+  const coarser = Math.max(dx, dy);
+  const wavelengthAt = (f: number) => (f > 0 ? c / f : NaN);
+  return {
+    dt_s: dt,
+    c_m_per_s: c,
+    courant,
+    stabilityLimit: limit,
+    stabilityMargin: limit - courant,
+    stabilityMarginFraction: (limit - courant) / limit,
+    f0_Hz: f0,
+    bandEdge_Hz: band.edgeHz,
+    wavelengthAtF0_m: wavelengthAt(f0),
+    wavelengthAtBandEdge_m: wavelengthAt(band.edgeHz),
+    cellsPerWavelengthAtF0: wavelengthAt(f0) / coarser,
+    cellsPerWavelengthAtBandEdge: wavelengthAt(band.edgeHz) / coarser,
+    nyquist_Hz: 1 / (2 * dt),
+    memory_bytes: scenarioMemoryBytes(s),
+    memoryCap_bytes: MEMORY_CAP_BYTES,
+    interiorNx: nx - 2 * s.absorber.cells,
+    interiorNy: ny - 2 * s.absorber.cells,
+    duration_s: s.steps * dt,
+  };
+}
