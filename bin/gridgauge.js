@@ -4,5 +4,10 @@
 import { register } from 'tsx/esm/api';
 
 register();
-const { main } = await import('../src/cli/main.ts');
-process.exitCode = await main(process.argv.slice(2));
+try {
+  const { main } = await import('../src/cli/main.ts');
+  process.exitCode = await main(process.argv.slice(2));
+} catch (e) {
+  process.stderr.write(`gridgauge: could not start: ${e instanceof Error ? e.message : String(e)}\n`);
+  process.exitCode = 1;
+}
