@@ -1,0 +1,373 @@
+/**
+ * Resolution study: how many cells per wavelength keep the phase the grid loses across the
+ * project within a budget. For each resolution a dedicated measurement run places a
+ * modulated-Gaussian line current and three probe lines (along x, along y, along the 45°
+ * diagonal) from two to five wavelengths out; the phase error arg(FDTD/exact) along each
+ * line is fitted against distance by least squares, whose slope is the phase lost per
+ * wavelength (the fit removes the near-source offset). The Yee dispersion relation
+ * (Taflove & Hagness, Computational Electrodynamics, ch. 4) predicts the same slope.
+ * Held fixed from the user's scenario: the Courant number, the ratio dy/dx, the medium and
+ * the absorber grading. Cells per wavelength count along x at the highest frequency.
+ */
+import { engineMemoryBytes } from '../engine/memory.ts';
+import { waveformBand } from '../engine/waveforms.ts';
+import { phaseErrorPerWavelengthDeg } from '../exact/dispersion.ts';
+import { timeStep, waveSpeed } from '../scenario/layout.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { jobCellUpdates, type PhaseSlopeResult } from './jobs.ts';
+import { StudyCancelled, type StudyPool } from './pool.ts';
+import { ProgressTracker } from './progress.ts';
+import type { StudyCallbacks } from './absorber-study.ts';
+
+export const DEFAULT_CELLS_PER_WAVELENGTH = [8, 10, 12, 14, 16, 18, 20, 24, 28, 32, 36, 40, 44, 48, 54, 60] as const;
+
+/** Geometry of a measurement run, in wavelengths of the medium at the study frequency. */
+export const MEASUREMENT = {
+  /** From the inner face of the layers to the source. */
+  sourceOffset: 1,
+  /** Where the probe lines start and end, measured from the source. */
+  lineStart: 2,
+  lineEnd: 5,
+  /** Interior left beyond the far ends of the lines. */
+  farMargin: 1,
+  /** Periods recorded after the pulse has passed the far end of the lines. */
+  tailPeriods: 4,
+  /** Thinnest absorber used for measurement runs, cells. */
+  minimumCells: 10,
+} as const;
+
+/** Line names of a measurement run. */
+export const LINE_NAMES = { x: 'along x', y: 'along y', diagonal: 'diagonal' } as const;
+
+export interface ResolutionStudyOptions {
+  /** Largest distance in the project, in wavelengths at the highest frequency. */
+  size_wavelengths: number;
+  /** Phase error allowed across that distance, degrees. */
+  budget_deg: number;
+  /** Resolutions to measure (default DEFAULT_CELLS_PER_WAVELENGTH within minCells..maxCells). */
+  cellsPerWavelength?: number[];
+  /** Coarsest resolution measured (default 8); added to the list if absent. */
+  minCells?: number;
+  /** Finest resolution measured (default 60); added to the list if absent. */
+  maxCells?: number;
+}
+
+/** Problems with study options, as messages naming the option; empty when all is well. */
+export function resolutionOptionProblems(o: ResolutionStudyOptions): string[] {
+  const problems: string[] = [];
+  if (!(Number.isFinite(o.size_wavelengths) && o.size_wavelengths > 0)) problems.push(`size: ${o.size_wavelengths} is not a positive number of wavelengths, e.g. --size 12`);
+  if (!(Number.isFinite(o.budget_deg) && o.budget_deg > 0)) problems.push(`budget: ${o.budget_deg} is not a positive number of degrees, e.g. --budget 5`);
+  const cpw = (name: string, v: number | undefined) => {
+    if (v !== undefined && !(Number.isFinite(v) && v >= 4 && v <= 400)) problems.push(`${name}: ${v} is not a number of cells per wavelength from 4 to 400`);
+  };
+  cpw('min-cells', o.minCells);
+  cpw('max-cells', o.maxCells);
+  for (const v of o.cellsPerWavelength ?? []) cpw('cellsPerWavelength', v);
+  if (o.cellsPerWavelength && o.cellsPerWavelength.length === 0) problems.push('cellsPerWavelength: give at least one value');
+  if (o.minCells !== undefined && o.maxCells !== undefined && o.minCells > o.maxCells) problems.push(`min-cells ${o.minCells} is above max-cells ${o.maxCells}`);
+  return problems;
+}
+
+/** The resolutions a study measures, ascending, without repeats. */
+export function resolutionList(o: Omit<ResolutionStudyOptions, 'size_wavelengths' | 'budget_deg'>): number[] {
+  if (o.cellsPerWavelength) return [...new Set(o.cellsPerWavelength)].sort((a, b) => a - b);
+  const lo = o.minCells ?? DEFAULT_CELLS_PER_WAVELENGTH[0];
+  const hi = o.maxCells ?? DEFAULT_CELLS_PER_WAVELENGTH[DEFAULT_CELLS_PER_WAVELENGTH.length - 1];
+  return [...new Set([lo, ...DEFAULT_CELLS_PER_WAVELENGTH.filter((n) => n > lo && n < hi), hi])].sort((a, b) => a - b);
+}
+
+/**
+ * The frequency the study works at: the highest analysis frequency of the scenario, or
+ * when it lists none, the highest frequency at which the source spectrum is 40 dB below
+ * its peak, Hz.
+ */
+export function studyFrequency(s: Scenario): number {
+  if (s.frequencies.length > 0) return Math.max(...s.frequencies);
+  return waveformBand(s.source.waveform).edgeHz;
+}
+
+/**
+ * The measurement run for `cellsPerWavelength` cells per wavelength along x at `f` Hz:
+ * dx = λ/N, dy = dx·(the scenario's dy/dx), the scenario's Courant number, medium and
+ * absorber grading (at least MEASUREMENT.minimumCells thick); a modulated Gaussian at f
+ * (τ = 1/f, t0 = 5τ); lines along x, y and the 45° diagonal from 2 to 5 wavelengths; and
+ * enough steps for the pulse to pass the far ends and a few periods more.
+ */
+export function measurementScenario(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
+  const c = waveSpeed(s.medium.epsR);
+  const wavelength = c / f;
+  const dx = wavelength / cellsPerWavelength;
+  const dy = dx * (s.grid.dy / s.grid.dx);
+  const cells = Math.max(s.absorber.cells, MEASUREMENT.minimumCells);
+  const M = MEASUREMENT;
+  const reach = (M.sourceOffset + M.lineEnd + M.farMargin) * wavelength;
+  const nx = 2 * cells + Math.ceil(reach / dx) + 1;
+  const ny = 2 * cells + Math.ceil(reach / dy) + 1;
+  const si = cells + Math.round((M.sourceOffset * wavelength) / dx);
+  const sj = cells + Math.round((M.sourceOffset * wavelength) / dy);
+  const x = si * dx;
+  const y = sj * dy;
+  const r0 = M.lineStart * wavelength;
+  const r1 = M.lineEnd * wavelength;
+  const d = Math.SQRT1_2;
+  const tau = 1 / f;
+  const t0 = 5 * tau;
+  const dt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
+  // the pulse is over by t0 + 6τ; a slow grid (a few % at 8 cells per wavelength) arrives late
+  const window = t0 + 6 * tau + (1.05 * r1) / c + M.tailPeriods / f;
+  return {
+    format: 'gridgauge-scenario',
+    version: 1,
+    grid: { nx, ny, dx, dy, courant: s.grid.courant },
+    medium: { ...s.medium },
+    absorber: { ...s.absorber, cells },
+    source: { x, y, amplitude: 1, waveform: { kind: 'modulated-gaussian', f0: f, tau, t0 } },
+    probes: [],
+    lines: [
+      { name: LINE_NAMES.x, x0: x + r0, y0: y, x1: x + r1, y1: y },
+      { name: LINE_NAMES.y, x0: x, y0: y + r0, x1: x, y1: y + r1 },
+      { name: LINE_NAMES.diagonal, x0: x + r0 * d, y0: y + r0 * d, x1: x + r1 * d, y1: y + r1 * d },
+    ],
+    frequencies: [f],
+    steps: Math.ceil(window / dt),
+  };
+}
+
+/** Phase lag per wavelength from the Yee dispersion relation at angle θ (rad), degrees, positive for a lag. */
+export function predictedLagPerWavelength(f: number, theta: number, dx: number, dy: number, dt: number, c: number): number {
+  return Math.abs(phaseErrorPerWavelengthDeg(f, theta, dx, dy, dt, c));
+}
+
+export interface ResolutionCandidatePlan {
+  cellsPerWavelength: number;
+  dx_m: number;
+  dy_m: number;
+  dt_s: number;
+  scenario: Scenario;
+  /** Lag per wavelength the dispersion relation predicts, degrees. */
+  predicted: { x: number; y: number; diagonal: number };
+}
+
+export interface ResolutionStudyPlan {
+  size_wavelengths: number;
+  budget_deg: number;
+  frequency_Hz: number;
+  wavelength_m: number;
+  courant: number;
+  /** dy/dx, held fixed. */
+  aspect: number;
+  /** Absorber cells assumed for the project grid. */
+  absorberCells: number;
+  candidates: ResolutionCandidatePlan[];
+}
+
+/** The measurement runs of a resolution study. Throws RangeError on bad options. */
+export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions): ResolutionStudyPlan {
+  const problems = resolutionOptionProblems(options);
+  if (problems.length > 0) throw new RangeError(problems.join('; '));
+  const f = studyFrequency(s);
+  const c = waveSpeed(s.medium.epsR);
+  const candidates = resolutionList(options).map((n): ResolutionCandidatePlan => {
+    const scenario = measurementScenario(s, n, f);
+    const { dx, dy } = scenario.grid;
+    const dt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
+    return {
+      cellsPerWavelength: n, dx_m: dx, dy_m: dy, dt_s: dt, scenario,
+      predicted: {
+        x: predictedLagPerWavelength(f, 0, dx, dy, dt, c),
+        y: predictedLagPerWavelength(f, Math.PI / 2, dx, dy, dt, c),
+        diagonal: predictedLagPerWavelength(f, Math.PI / 4, dx, dy, dt, c),
+      },
+    };
+  });
+  return {
+    size_wavelengths: options.size_wavelengths,
+    budget_deg: options.budget_deg,
+    frequency_Hz: f,
+    wavelength_m: c / f,
+    courant: s.grid.courant,
+    aspect: s.grid.dy / s.grid.dx,
+    absorberCells: s.absorber.cells,
+    candidates,
+  };
+}
+
+/** Memory and run time of a square 2D project grid at one resolution. */
+export interface ProjectEstimate {
+  nx: number;
+  ny: number;
+  steps: number;
+  memory_bytes: number;
+  /** At the engine speed measured during the study; NaN until one run has finished. */
+  seconds: number;
+}
+
+/**
+ * A 2D grid covering size × size wavelengths at `cellsPerWavelength` cells per wavelength
+ * along x (dy = aspect·dx), plus the absorber on every side, run long enough for a wave
+ * to cross its diagonal once after a 10-period pulse. Memory from the engine's own
+ * estimate (fields, CPML, coefficients, source table); time = nx·ny·steps / speed.
+ */
+export function projectEstimate(
+  size_wavelengths: number, cellsPerWavelength: number, aspect: number, courant: number, absorberCells: number, mcellsPerSecond: number,
+): ProjectEstimate {
+  const nx = Math.ceil(size_wavelengths * cellsPerWavelength) + 1 + 2 * absorberCells;
+  const ny = Math.ceil((size_wavelengths * cellsPerWavelength) / aspect) + 1 + 2 * absorberCells;
+  // in periods: the pulse (10) and the diagonal in wavelengths; one period is N·(dx/min(dx,dy))/S steps
+  const stepsPerPeriod = (cellsPerWavelength / courant) * (1 / Math.min(1, aspect));
+  const steps = Math.ceil((10 + size_wavelengths * Math.hypot(1, 1)) * stepsPerPeriod);
+  const memory_bytes = engineMemoryBytes({ nx, ny, cells: absorberCells, steps, probes: 0, dftPoints: 0, frequencies: 0, fullGridDft: false });
+  return { nx, ny, steps, memory_bytes, seconds: (nx * ny * steps) / (mcellsPerSecond * 1e6) };
+}
+
+export interface ResolutionCandidateResult {
+  cellsPerWavelength: number;
+  dx_m: number;
+  dy_m: number;
+  /** Measured lag per wavelength, degrees (positive): the worse of x and y. */
+  axis_deg_per_wavelength: number;
+  /** Measured lag per wavelength along the 45° diagonal, degrees. */
+  diagonal_deg_per_wavelength: number;
+  predicted_axis_deg_per_wavelength: number;
+  predicted_diagonal_deg_per_wavelength: number;
+  /** Measured lag per wavelength along x and along y separately, degrees. */
+  x_deg_per_wavelength: number;
+  y_deg_per_wavelength: number;
+  /** Worst direction's measured lag per wavelength × the project size, degrees. */
+  projected_error_deg: number;
+  /** RMS distance of the measured phases from the fitted lines, degrees (worst line). */
+  fit_residual_deg: number;
+  /** Run time of the measurement in its worker, s. */
+  seconds: number;
+  cellUpdates: number;
+  project: ProjectEstimate;
+  error?: string;
+}
+
+export interface ResolutionStudyResult {
+  budget_deg: number;
+  size_wavelengths: number;
+  frequency_Hz: number;
+  wavelength_m: number;
+  courant: number;
+  aspect: number;
+  /** Engine speed over all measurement runs, million Ez-node updates per second per worker. */
+  mcells_per_second: number;
+  candidates: ResolutionCandidateResult[];
+  /** Coarsest resolution whose projected error meets the budget; null if none. */
+  recommended: ResolutionCandidateResult | null;
+  planned: number;
+  complete: boolean;
+  workers: number[];
+  seconds: number;
+}
+
+/** Figures of one measurement run (project time left NaN: the speed is known at the end). */
+export function evaluateResolution(plan: ResolutionStudyPlan, c: ResolutionCandidatePlan, run: PhaseSlopeResult): ResolutionCandidateResult {
+  const lag = (name: string) => {
+    const line = run.lines.find((l) => l.name === name);
+    return line ? Math.abs(line.slopeDegPerWavelength) : NaN;
+  };
+  const x = lag(LINE_NAMES.x);
+  const y = lag(LINE_NAMES.y);
+  const diagonal = lag(LINE_NAMES.diagonal);
+  const axis = Math.max(x, y);
+  const worst = Math.max(axis, diagonal);
+  return {
+    cellsPerWavelength: c.cellsPerWavelength,
+    dx_m: c.dx_m,
+    dy_m: c.dy_m,
+    axis_deg_per_wavelength: axis,
+    diagonal_deg_per_wavelength: diagonal,
+    predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
+    predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
+    x_deg_per_wavelength: x,
+    y_deg_per_wavelength: y,
+    projected_error_deg: worst * plan.size_wavelengths,
+    fit_residual_deg: Math.max(...run.lines.map((l) => l.residualRmsDeg)),
+    seconds: run.seconds,
+    cellUpdates: run.cellUpdates,
+    project: projectEstimate(plan.size_wavelengths, c.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, NaN),
+  };
+}
+
+/** The coarsest (fewest cells per wavelength) candidate whose projected error is within the budget, or null. */
+export function recommendResolution<T extends { cellsPerWavelength: number; projected_error_deg: number }>(candidates: readonly T[], budget_deg: number): T | null {
+  let best: T | null = null;
+  for (const c of candidates) {
+    if (!(c.projected_error_deg <= budget_deg)) continue;
+    if (!best || c.cellsPerWavelength < best.cellsPerWavelength) best = c;
+  }
+  return best;
+}
+
+/**
+ * Runs a planned resolution study on a pool, finest resolution first (the largest runs),
+ * streaming each candidate as it finishes. When cancelled, resolves with what finished.
+ */
+export async function runResolutionStudy(
+  plan: ResolutionStudyPlan, pool: StudyPool, callbacks: StudyCallbacks<ResolutionCandidateResult> = {},
+): Promise<ResolutionStudyResult> {
+  const started = performance.now();
+  const { signal } = callbacks;
+  const tracker = new ProgressTracker(plan.candidates.map((c) => jobCellUpdates(c)), callbacks.onProgress);
+  const results: ResolutionCandidateResult[] = [];
+  const workers = new Set<number>();
+  let cancelled = false;
+  const cancel = () => { cancelled = true; pool.cancel(); };
+  if (signal?.aborted) cancel();
+  signal?.addEventListener('abort', cancel, { once: true });
+
+  const order = plan.candidates.map((_, k) => k).reverse();
+  await Promise.all(order.map((index) => {
+    const c = plan.candidates[index];
+    return pool.run({ kind: 'phase-slope', scenario: c.scenario }, (d, t) => tracker.step(index, d / t)).then(
+      (o) => {
+        workers.add(o.worker);
+        tracker.finish(index);
+        const r = evaluateResolution(plan, c, o.result);
+        results.push(r);
+        callbacks.onCandidate?.(r);
+      },
+      (e: unknown) => {
+        if (e instanceof StudyCancelled) return;
+        tracker.finish(index);
+        const r: ResolutionCandidateResult = {
+          cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m, dy_m: c.dy_m,
+          axis_deg_per_wavelength: NaN, diagonal_deg_per_wavelength: NaN,
+          predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
+          predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
+          x_deg_per_wavelength: NaN, y_deg_per_wavelength: NaN, projected_error_deg: NaN, fit_residual_deg: NaN,
+          seconds: NaN, cellUpdates: 0,
+          project: projectEstimate(plan.size_wavelengths, c.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, NaN),
+          error: e instanceof Error ? e.message : String(e),
+        };
+        results.push(r);
+        callbacks.onCandidate?.(r);
+      },
+    );
+  }));
+  signal?.removeEventListener('abort', cancel);
+
+  const ran = results.filter((r) => r.seconds > 0);
+  const mcells = ran.reduce((a, r) => a + r.cellUpdates, 0) / ran.reduce((a, r) => a + r.seconds, 0) / 1e6;
+  for (const r of results) {
+    r.project = projectEstimate(plan.size_wavelengths, r.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, mcells);
+  }
+  results.sort((a, b) => a.cellsPerWavelength - b.cellsPerWavelength);
+  return {
+    budget_deg: plan.budget_deg,
+    size_wavelengths: plan.size_wavelengths,
+    frequency_Hz: plan.frequency_Hz,
+    wavelength_m: plan.wavelength_m,
+    courant: plan.courant,
+    aspect: plan.aspect,
+    mcells_per_second: mcells,
+    candidates: results,
+    recommended: recommendResolution(results, plan.budget_deg),
+    planned: plan.candidates.length,
+    complete: !cancelled && results.length === plan.candidates.length,
+    workers: [...workers].sort((a, b) => a - b),
+    seconds: (performance.now() - started) / 1000,
+  };
+}
