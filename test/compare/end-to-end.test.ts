@@ -42,13 +42,44 @@ describe('end to end: measured against predicted phase error', () => {
         `predicted ${sp.predicted_phase_err_deg.toFixed(3)}°, magnitude ${sp.mag_err_dB.toFixed(4)} dB, relErrMax ${p.relErrMax.toExponential(3)}`);
       // dispersion relation, Taflove & Hagness ch. 4: −(k̃ − k)·ρ
       expect(Math.abs(sp.phase_err_deg - sp.predicted_phase_err_deg)).toBeLessThan(0.1);
-      expect(Math.abs(sp.mag_err_dB)).toBeLessThan(0.1);
+      // axis: under 0.1 dB. Diagonal: the scheme's amplitude is anisotropic at second order
+      // (measured 0.13 dB at 20 cells/λ whatever ρ, window or S; see the next test), so 0.15 dB.
+      expect(Math.abs(sp.mag_err_dB)).toBeLessThan(p.name === 'axis' ? 0.1 : 0.15);
     }
     const axis = r.probes[0].spectra[0];
     // closed form at N = 20, S = 0.5 along an axis gives about −3.3° over 3 λ (Taflove & Hagness ch. 4)
     expect(axis.predicted_phase_err_deg).toBeGreaterThan(-3.5);
     expect(axis.predicted_phase_err_deg).toBeLessThan(-3.1);
     expect(axis.phase_err_deg).toBeLessThan(0); // the grid lags the exact wave
+  }, 60_000);
+});
+
+describe('end to end: the diagonal magnitude error is a property of the scheme', () => {
+  it('is the same at 3 and 10 wavelengths and falls about 4× from 20 to 40 cells per wavelength', async () => {
+    // a second-order amplitude error falls as Δ² (common practice, no source); a measurement
+    // artefact (window, absorber, near field) would change with distance instead
+    const diagonalError = async (cells: number, wavelengths: number[]) => {
+      const s = threeWavelengthScenario(cells);
+      const d = s.grid.dx;
+      const far = Math.max(...wavelengths) * cells;
+      const n = 2 * (Math.ceil(far / Math.SQRT2) + 40) + 1;
+      const c = ((n - 1) / 2) * d;
+      const wide: Scenario = {
+        ...s, grid: { ...s.grid, nx: n, ny: n },
+        source: { ...s.source, x: c, y: c },
+        probes: wavelengths.map((w, k) => ({ name: `d${k}`, x: c + (w * cells * d) / Math.SQRT2, y: c + (w * cells * d) / Math.SQRT2 })),
+        steps: s.steps + Math.ceil(2 * far),
+      };
+      const sim = await Simulation.create(wide);
+      sim.run();
+      return collectResults(sim).probes.map((p) => p.spectra[0].mag_err_dB);
+    };
+    const [near20, far20] = await diagonalError(20, [3, 10]);
+    const [near40] = await diagonalError(40, [3]);
+    console.log(`diagonal |Ez/I| error: 20 cells/λ ${near20.toFixed(4)} dB at 3 λ, ${far20.toFixed(4)} dB at 10 λ; 40 cells/λ ${near40.toFixed(4)} dB`);
+    expect(Math.abs(near20 - far20)).toBeLessThan(0.01);
+    expect(near20 / near40).toBeGreaterThan(3.5);
+    expect(near20 / near40).toBeLessThan(4.5);
   }, 60_000);
 });
 
