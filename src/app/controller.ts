@@ -1,0 +1,243 @@
+/**
+ * What the person's actions do: edit the scenario, run it in the worker, load and save
+ * files. Holds no state of its own beyond the worker; everything shown lives in the store.
+ */
+import { runFiles, type RunFiles } from '../io/outputs.ts';
+import { deriveQuantities } from '../scenario/derived.ts';
+import { demoScenario } from '../scenario/defaults.ts';
+import { parseScenarioText, validateScenario } from '../scenario/parse.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { applyEdits, type DisplayUnits, type Draft, type Edit } from './draft.ts';
+import { saveText } from './download.ts';
+import { saveDraft, saveTheme, saveUnits, writeLink } from './persist.ts';
+import type { FromWorker } from './protocol.ts';
+import { RunClient } from './run-client.ts';
+import type { Store } from './store.ts';
+import type { ThemeName } from './theme.ts';
+
+/** Largest scenario file the page reads, bytes (the command line has the same cap). */
+export const SCENARIO_FILE_CAP_BYTES = 5 * 1024 * 1024;
+
+/** Node updates per second assumed for the run-time estimate before anything was measured. */
+export const ASSUMED_CELL_RATE = 150e6;
+
+export class AppController {
+  private readonly client: RunClient;
+  private runId = 0;
+  private saveTimer: ReturnType<typeof setTimeout> | undefined;
+  /** The scenario of the run in progress (or last run), for labelling its results. */
+  private runScenario: Scenario | undefined;
+
+  constructor(private readonly store: Store) {
+    this.client = new RunClient({
+      message: (m) => this.onWorkerMessage(m),
+      crash: (message) => this.onWorkerCrash(message),
+    });
+  }
+
+  /** Resolves when the run worker has its engine compiled. */
+  whenReady(): Promise<void> {
+    return this.client.whenReady();
+  }
+
+  // ---- the scenario ----
+
+  setDraft(draft: Draft): void {
+    const check = validateScenario(draft);
+    const derived = check.ok ? deriveQuantities(check.scenario) : undefined;
+    const mapFrequency = check.ok ? Math.min(this.store.state.mapFrequency, Math.max(0, check.scenario.frequencies.length - 1)) : this.store.state.mapFrequency;
+    this.store.set({ draft, check, derived, mapFrequency });
+    clearTimeout(this.saveTimer);
+    this.saveTimer = setTimeout(() => {
+      saveDraft(draft);
+      if (check.ok) writeLink(check.scenario);
+    }, 250);
+  }
+
+  edit(edits: readonly Edit[]): void {
+    this.setDraft(applyEdits(this.store.state.draft, edits));
+  }
+
+  loadDemo(): void {
+    this.setDraft(demoScenario() as unknown as Draft);
+    this.store.set({ notice: undefined });
+  }
+
+  /** Reads a scenario file; an invalid one is refused with its problems and nothing changes. */
+  async loadFile(file: File): Promise<boolean> {
+    if (file.size > SCENARIO_FILE_CAP_BYTES) {
+      this.store.set({
+        notice: {
+          kind: 'error', title: `${file.name} was not loaded`,
+          lines: [`It is ${(file.size / 2 ** 20).toFixed(1)} MiB; scenario files are limited to 5 MiB. A scenario is a few kilobytes of JSON: is this the right file?`],
+        },
+      });
+      return false;
+    }
+    const result = parseScenarioText(await file.text());
+    if (!result.ok) {
+      this.store.set({
+        notice: {
+          kind: 'error', title: `${file.name} was not loaded; the scenario on the page is unchanged`,
+          lines: result.problems.map((p) => `${p.path}: ${p.message}`),
+        },
+      });
+      return false;
+    }
+    this.setDraft(result.scenario as unknown as Draft);
+    this.store.set({ notice: { kind: 'info', title: `Loaded ${file.name}`, lines: [] } });
+    return true;
+  }
+
+  /** A scenario offered by another panel (e.g. a study's recommendation). */
+  applyScenario(scenario: Scenario, note: string): void {
+    this.setDraft(structuredClone(scenario) as unknown as Draft);
+    this.store.set({ notice: { kind: 'info', title: note, lines: [] } });
+  }
+
+  saveScenario(): void {
+    const { check } = this.store.state;
+    if (!check.ok) return;
+    saveText('scenario.json', `${JSON.stringify(check.scenario, null, 2)}\n`, 'application/json');
+  }
+
+  dismissNotice(): void {
+    this.store.set({ notice: undefined });
+  }
+
+  setTheme(theme: ThemeName): void {
+    saveTheme(theme);
+    this.store.set({ theme });
+  }
+
+  setUnits(units: DisplayUnits): void {
+    saveUnits(units);
+    this.store.set({ units });
+  }
+
+  setLineFrequency(index: number): void {
+    this.store.set({ lineFrequency: index });
+  }
+
+  setMapFrequency(index: number): void {
+    this.store.set({ mapFrequency: index });
+  }
+
+  // ---- the run ----
+
+  run(): void {
+    const { check, run, mapFrequency } = this.store.state;
+    if (!check.ok || run.phase === 'running' || run.phase === 'paused' || run.phase === 'stopping') return;
+    const scenario = check.scenario;
+    const runId = ++this.runId;
+    this.runScenario = scenario;
+    performance.clearMarks('gg-run-pressed');
+    performance.mark('gg-run-pressed');
+    this.store.setFrame(undefined);
+    this.store.set({
+      run: { phase: 'running', runId, stepsDone: 0, stepsTotal: scenario.steps, stepsPerSecond: 0 },
+      notice: undefined,
+    });
+    const fullGridFrequency = scenario.frequencies[Math.min(mapFrequency, scenario.frequencies.length - 1)];
+    if (!this.client.send({ type: 'run', runId, scenario, fullGridFrequency })) {
+      this.store.setRun({ phase: 'failed', message: 'the run worker could not be started; reload the page' });
+    }
+  }
+
+  pause(): void {
+    if (this.store.state.run.phase !== 'running') return;
+    this.client.send({ type: 'pause' });
+    this.store.setRun({ phase: 'paused' });
+  }
+
+  resume(): void {
+    if (this.store.state.run.phase !== 'paused') return;
+    this.client.send({ type: 'resume' });
+    this.store.setRun({ phase: 'running' });
+  }
+
+  stop(): void {
+    const phase = this.store.state.run.phase;
+    if (phase !== 'running' && phase !== 'paused') return;
+    this.client.send({ type: 'stop' });
+    this.store.setRun({ phase: 'stopping' });
+  }
+
+  /** Abandons any run, clears the results and field, and starts a fresh worker. */
+  reset(): void {
+    this.runId++;
+    this.client.restart();
+    this.store.setFrame(undefined);
+    this.store.set({
+      run: { phase: 'idle', runId: this.runId, stepsDone: 0, stepsTotal: 0, stepsPerSecond: 0 },
+      results: undefined, resultsScenario: undefined, errorMap: undefined,
+    });
+  }
+
+  /** Fault injection for the recovery test: makes the worker die as a bug would. */
+  crashWorkerForTest(): void {
+    this.client.send({ type: 'crash' });
+  }
+
+  private onWorkerMessage(m: FromWorker): void {
+    const { run } = this.store.state;
+    if (m.type === 'failed' && m.runId === -1) {
+      this.store.set({ notice: { kind: 'error', title: 'The engine could not be loaded', lines: [m.message] } });
+      return;
+    }
+    if (m.runId !== run.runId) return; // a run that was reset or replaced
+    switch (m.type) {
+      case 'started':
+        this.store.setRun({ stepsTotal: m.stepsTotal });
+        break;
+      case 'progress':
+        this.store.setRun({ stepsDone: m.stepsDone, stepsPerSecond: m.stepsPerSecond });
+        break;
+      case 'frame':
+        this.store.setFrame(m);
+        break;
+      case 'done': {
+        const scenario = this.runScenario;
+        this.store.set({
+          run: {
+            ...run, phase: m.stopped ? 'stopped' : 'done', stepsDone: m.results.steps,
+            stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds,
+            message: m.stopped ? `stopped at step ${m.results.steps} of ${m.results.stepsPlanned}; the comparison covers the steps taken` : undefined,
+          },
+          results: m.results,
+          resultsScenario: scenario,
+          errorMap: m.errorMap,
+          lineFrequency: Math.min(this.store.state.lineFrequency, Math.max(0, m.results.frequencies.length - 1)),
+          measuredCellRate: scenario ? m.stepsPerSecond * scenario.grid.nx * scenario.grid.ny : this.store.state.measuredCellRate,
+        });
+        break;
+      }
+      case 'failed':
+        this.store.setRun({ phase: 'failed', message: m.message });
+        break;
+    }
+  }
+
+  private onWorkerCrash(message: string): void {
+    const { run } = this.store.state;
+    const busy = run.phase === 'running' || run.phase === 'paused' || run.phase === 'stopping';
+    this.runId++;
+    this.store.setRun({
+      phase: busy ? 'failed' : run.phase,
+      runId: this.runId,
+      message: busy ? `the run worker crashed (${message}); a fresh worker has been started, press Run to try again` : run.message,
+    });
+    this.store.set({
+      notice: { kind: 'error', title: 'The run worker crashed and was restarted', lines: [message, 'Your scenario and earlier results are kept; press Run to try again.'] },
+    });
+  }
+
+  /** The four run files exactly as the command line writes them for the same results. */
+  runFiles(): RunFiles | undefined {
+    const { results, resultsScenario, run } = this.store.state;
+    if (!results || !resultsScenario) return undefined;
+    return runFiles(results, {
+      run_seconds: run.runSeconds ?? 0, nx: resultsScenario.grid.nx, ny: resultsScenario.grid.ny, frequencies_Hz: results.frequencies,
+    });
+  }
+}

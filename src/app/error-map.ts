@@ -1,0 +1,194 @@
+import { css, html, LitElement, type PropertyValues } from 'lit';
+import { customElement, property, query, state } from 'lit/decorators.js';
+import type { ErrorMap } from '../compare/error-map.ts';
+import { formatSI, formatSig } from '../io/units.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { LUT_SIZE, sequentialLut } from './colormap.ts';
+import { canvasesToPng, saveBlob } from './download.ts';
+import { drawAbsorberOutline, drawMarkers, GridGeometry, paintGrid } from './grid-drawing.ts';
+import { controlStyles, palettes, type ThemeName } from './theme.ts';
+
+const RANGES = [40, 60, 80, 100];
+
+/**
+ * |FDTD/exact − 1| in dB over the whole grid at one frequency, from the run's full-grid
+ * running DFT: dispersion anisotropy shows as error rising faster along the axes than the
+ * diagonals, absorber reflections as ripples. Dark is small error, bright is large.
+ */
+@customElement('gg-error-map')
+export class GgErrorMap extends LitElement {
+  static styles = [controlStyles, css`
+    :host { display: block; }
+    .tools { display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-bottom: 0.4rem; }
+    .tools label { display: inline-flex; gap: 0.3rem; align-items: center; }
+    .stage { position: relative; width: 100%; }
+    canvas.map { display: block; border-radius: 4px; background: var(--gg-raised); }
+    .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; white-space: nowrap; }
+    .legend .muted { white-space: normal; }
+    canvas.bar { height: 10px; width: min(260px, 50%); border-radius: 2px; }
+    .readout, .note { font-size: 0.8rem; margin: 0.25rem 0 0; min-height: 1.2em; }
+  `];
+
+  @property({ attribute: false }) map: ErrorMap | undefined;
+  /** The scenario of the run that made the map. */
+  @property({ attribute: false }) scenario: Scenario | undefined;
+  /** Analysis frequencies of the scenario being edited, Hz, and the one chosen for the next map. */
+  @property({ attribute: false }) frequencies: number[] = [];
+  @property({ type: Number }) chosen = 0;
+  @property() theme: ThemeName = 'light';
+
+  @state() private range = 80;
+
+  @query('canvas.map') private canvas!: HTMLCanvasElement;
+  @query('canvas.bar') private bar!: HTMLCanvasElement;
+  @query('.readout') private readout!: HTMLElement;
+
+  private sizer: ResizeObserver | undefined;
+  private scratch: { canvas?: HTMLCanvasElement; image?: ImageData } = {};
+  private drawRequested = false;
+
+  render() {
+    const next = this.frequencies[this.chosen];
+    const differs = this.map && next !== undefined && next !== this.map.f_Hz;
+    return html`
+      <div class="tools">
+        <label>Map at
+          <select aria-label="Frequency of the error map (used by the next run)" ?disabled=${this.frequencies.length === 0}
+            @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gg-map-frequency', { detail: { index: Number((e.target as HTMLSelectElement).value) }, bubbles: true, composed: true }))}>
+            ${this.frequencies.map((f, k) => html`<option value=${k} ?selected=${k === this.chosen}>${formatSI(f, 'Hz')}</option>`)}
+          </select>
+        </label>
+        <label>Range
+          <select aria-label="Range of the error colour scale" @change=${(e: Event) => { this.range = Number((e.target as HTMLSelectElement).value); }}>
+            ${RANGES.map((r) => html`<option value=${r} ?selected=${r === this.range}>−${r} dB to 0 dB</option>`)}
+          </select>
+        </label>
+        <button class="small" @click=${this.savePng} ?disabled=${!this.map} aria-label="Save the error map as PNG">PNG</button>
+      </div>
+      <div class="stage">
+        <canvas class="map" role="img" aria-label=${this.map ? `Error map at ${formatSI(this.map.f_Hz, 'Hz')}: |FDTD/exact − 1| in dB over the grid` : 'Error map, empty until a run finishes'}
+          @pointermove=${this.onMove} @pointerleave=${() => { if (this.readout) this.readout.textContent = '\u00a0'; }}></canvas>
+      </div>
+      <div class="legend">
+        <span class="num">−${this.range} dB</span><canvas class="bar" width="256" height="1" aria-hidden="true"></canvas><span class="num">0 dB</span>
+        <span class="muted">|FDTD/exact − 1|${this.map ? ` at ${formatSI(this.map.f_Hz, 'Hz')}` : ''}; absorber grey</span>
+      </div>
+      <p class="readout muted num">\u00a0</p>
+      ${this.frequencies.length === 0 ? html`<p class="note muted">Add an analysis frequency in Set-up to get an error map.</p>` : ''}
+      ${differs ? html`<p class="note muted">The next run maps ${formatSI(next as number, 'Hz')}.</p>` : ''}
+    `;
+  }
+
+  protected firstUpdated(): void {
+    this.sizer = new ResizeObserver(() => this.fitCanvas());
+    this.sizer.observe(this.renderRoot.querySelector('.stage') as HTMLElement);
+    const ctx = this.bar.getContext('2d') as CanvasRenderingContext2D;
+    const image = new ImageData(LUT_SIZE, 1);
+    new Uint32Array(image.data.buffer).set(sequentialLut());
+    ctx.putImageData(image, 0, 0);
+  }
+
+  disconnectedCallback(): void {
+    super.disconnectedCallback();
+    this.sizer?.disconnect();
+    this.sizer = undefined;
+  }
+
+  protected updated(changed: PropertyValues<this>): void {
+    if (changed.has('scenario')) this.fitCanvas();
+    this.requestDraw();
+  }
+
+  private fitCanvas(): void {
+    const stage = this.renderRoot.querySelector('.stage') as HTMLElement | null;
+    const s = this.scenario;
+    if (!stage || !this.canvas) return;
+    const aspect = s ? (s.grid.ny * s.grid.dy) / (s.grid.nx * s.grid.dx) : 1;
+    let width = stage.clientWidth;
+    const maxHeight = Math.max(200, window.innerHeight * 0.7);
+    if (width * aspect > maxHeight) width = maxHeight / aspect;
+    const dpr = window.devicePixelRatio || 1;
+    this.canvas.style.width = `${Math.round(width)}px`;
+    this.canvas.style.height = `${Math.round(width * aspect)}px`;
+    const w = Math.max(1, Math.round(width * dpr));
+    const h = Math.max(1, Math.round(width * aspect * dpr));
+    if (this.canvas.width !== w || this.canvas.height !== h) {
+      this.canvas.width = w;
+      this.canvas.height = h;
+    }
+    this.requestDraw();
+  }
+
+  private requestDraw(): void {
+    if (this.drawRequested) return;
+    this.drawRequested = true;
+    requestAnimationFrame(() => {
+      this.drawRequested = false;
+      this.draw();
+    });
+  }
+
+  private draw(): void {
+    if (!this.canvas) return;
+    const ctx = this.canvas.getContext('2d') as CanvasRenderingContext2D;
+    const palette = palettes[this.theme];
+    const m = this.map;
+    const s = this.scenario;
+    if (!m || !s || m.nx !== s.grid.nx || m.ny !== s.grid.ny) {
+      ctx.fillStyle = palette.raised;
+      ctx.fillRect(0, 0, this.canvas.width, this.canvas.height);
+      ctx.fillStyle = palette.muted;
+      ctx.font = `${13 * (window.devicePixelRatio || 1)}px system-ui, sans-serif`;
+      ctx.textAlign = 'center';
+      ctx.fillText('The error map appears when a run finishes', this.canvas.width / 2, this.canvas.height / 2);
+      return;
+    }
+    const lut = sequentialLut();
+    const lo = -this.range;
+    const scale = (LUT_SIZE - 1) / -lo;
+    const missing = (255 << 24) | (0x80 << 16) | (0x80 << 8) | 0x80;
+    // Inside the absorber the field is damped on purpose, so its "error" says nothing:
+    // those nodes are greyed, leaving the colour range to the interior.
+    const cells = s.absorber.cells;
+    const shaded = new Float32Array(m.db);
+    for (let j = 0; j < m.ny; j++) {
+      for (let i = 0; i < m.nx; i++) {
+        if (i < cells || j < cells || i > m.nx - 1 - cells || j > m.ny - 1 - cells) shaded[j * m.nx + i] = NaN;
+      }
+    }
+    paintGrid(ctx, this.scratch, shaded, m.nx, m.ny, (v) => {
+      if (!Number.isFinite(v)) return missing;
+      const k = Math.round((v - lo) * scale);
+      return lut[k < 0 ? 0 : k > LUT_SIZE - 1 ? LUT_SIZE - 1 : k];
+    });
+    const g = GridGeometry.of(s, this.canvas.width, this.canvas.height);
+    const dpr = window.devicePixelRatio || 1;
+    drawAbsorberOutline(ctx, g, palette, dpr);
+    drawMarkers(ctx, g, s, palette, dpr);
+  }
+
+  private onMove = (e: PointerEvent) => {
+    const m = this.map;
+    const s = this.scenario;
+    if (!m || !s || !this.readout) return;
+    const r = this.canvas.getBoundingClientRect();
+    const g = GridGeometry.of(s, r.width, r.height);
+    const [i, j] = g.toNode(e.clientX - r.left, e.clientY - r.top);
+    if (i < 0 || j < 0 || i >= m.nx || j >= m.ny) return;
+    const v = m.db[j * m.nx + i];
+    const cells = s.absorber.cells;
+    const inAbsorber = i < cells || j < cells || i > m.nx - 1 - cells || j > m.ny - 1 - cells;
+    this.readout.textContent = `node (${i}, ${j}) · x = ${formatSI(i * s.grid.dx, 'm', 4)}, y = ${formatSI(j * s.grid.dy, 'm', 4)} · `
+      + (inAbsorber ? 'in the absorber (not compared)' : `error ${Number.isFinite(v) ? `${formatSig(v, 3)} dB` : 'undefined (source node)'}`);
+  };
+
+  private async savePng(): Promise<void> {
+    if (!this.map) return;
+    const p = palettes[this.theme];
+    saveBlob('error-map.png', await canvasesToPng([this.canvas], p.surface, p.ink, `|FDTD/exact − 1| at ${formatSI(this.map.f_Hz, 'Hz')}, −${this.range} dB to 0 dB`));
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gg-error-map': GgErrorMap }
+}

@@ -1,0 +1,206 @@
+/**
+ * Drawing a grid quantity on a canvas, shared by the field view and the error map: the
+ * mapping between canvas pixels and Ez nodes (j = 0 at the bottom), the absorber outline,
+ * and the source, probe and line markers.
+ */
+import { snapIndex } from '../scenario/layout.ts';
+import type { Scenario } from '../scenario/types.ts';
+import type { Palette } from './theme.ts';
+
+/** Canvas-pixel geometry of a grid drawn to fill a `width` × `height` canvas. */
+export class GridGeometry {
+  constructor(
+    readonly nx: number, readonly ny: number, readonly dx: number, readonly dy: number,
+    readonly cells: number, readonly width: number, readonly height: number,
+  ) {}
+
+  static of(s: Scenario, width: number, height: number): GridGeometry {
+    return new GridGeometry(s.grid.nx, s.grid.ny, s.grid.dx, s.grid.dy, s.absorber.cells, width, height);
+  }
+
+  /** Pixel centre of the node nearest to (x, y) metres. */
+  toPixel(x: number, y: number): [number, number] {
+    const i = x / this.dx;
+    const j = y / this.dy;
+    return [((i + 0.5) / this.nx) * this.width, this.height - ((j + 0.5) / this.ny) * this.height];
+  }
+
+  /** Node indices under a pixel (not clamped). */
+  toNode(px: number, py: number): [number, number] {
+    return [Math.floor((px / this.width) * this.nx), Math.floor(((this.height - py) / this.height) * this.ny)];
+  }
+
+  /** The interior node nearest a pixel, as metres (positions snap to nodes). */
+  toInteriorPosition(px: number, py: number): [number, number] {
+    const [i, j] = this.toNode(px, py);
+    const ci = Math.min(Math.max(i, this.cells), this.nx - 1 - this.cells);
+    const cj = Math.min(Math.max(j, this.cells), this.ny - 1 - this.cells);
+    return [tidy(ci * this.dx), tidy(cj * this.dy)];
+  }
+
+  /** Moves a position by whole cells, kept in the interior. */
+  nudge(x: number, y: number, di: number, dj: number): [number, number] {
+    const i = Math.min(Math.max(snapIndex(x, this.dx) + di, this.cells), this.nx - 1 - this.cells);
+    const j = Math.min(Math.max(snapIndex(y, this.dy) + dj, this.cells), this.ny - 1 - this.cells);
+    return [tidy(i * this.dx), tidy(j * this.dy)];
+  }
+}
+
+/** i·dx without float noise: 180·0.001 is written 0.18. */
+export function tidy(x: number): number {
+  return Number(x.toPrecision(12));
+}
+
+/**
+ * Writes `data` (row-major, row 0 at j = 0) through `colour` into an offscreen image and
+ * draws it over the whole canvas, nodes as sharp blocks.
+ */
+export function paintGrid(
+  ctx: CanvasRenderingContext2D, scratch: { canvas?: HTMLCanvasElement; image?: ImageData },
+  data: ArrayLike<number>, w: number, h: number, colour: (v: number) => number,
+): void {
+  if (!scratch.canvas || scratch.canvas.width !== w || scratch.canvas.height !== h) {
+    scratch.canvas = document.createElement('canvas');
+    scratch.canvas.width = w;
+    scratch.canvas.height = h;
+    scratch.image = new ImageData(w, h);
+  }
+  const image = scratch.image as ImageData;
+  const pixels = new Uint32Array(image.data.buffer);
+  for (let r = 0; r < h; r++) {
+    const src = r * w;
+    const dst = (h - 1 - r) * w; // j grows upwards
+    for (let c = 0; c < w; c++) pixels[dst + c] = colour(data[src + c]);
+  }
+  const off = scratch.canvas.getContext('2d') as CanvasRenderingContext2D;
+  off.putImageData(image, 0, 0);
+  ctx.imageSmoothingEnabled = false;
+  ctx.drawImage(scratch.canvas, 0, 0, ctx.canvas.width, ctx.canvas.height);
+}
+
+/** Dashed rectangle at the inner face of the absorber layers. */
+export function drawAbsorberOutline(ctx: CanvasRenderingContext2D, g: GridGeometry, p: Palette, dpr: number): void {
+  if (g.cells <= 0) return;
+  const x0 = (g.cells / g.nx) * g.width;
+  const x1 = ((g.nx - g.cells) / g.nx) * g.width;
+  const y0 = g.height - ((g.ny - g.cells) / g.ny) * g.height;
+  const y1 = g.height - (g.cells / g.ny) * g.height;
+  ctx.save();
+  ctx.setLineDash([5 * dpr, 4 * dpr]);
+  ctx.lineWidth = 1.5 * dpr;
+  ctx.strokeStyle = p.markerHalo;
+  ctx.strokeRect(x0, y0, x1 - x0, y1 - y0);
+  ctx.lineDashOffset = 5 * dpr;
+  ctx.strokeStyle = p.marker;
+  ctx.strokeRect(x0, y0, x1 - x0, y1 - y0);
+  ctx.restore();
+}
+
+/** A marker that can be picked and moved on the field view. */
+export type MarkerRef =
+  | { kind: 'source' }
+  | { kind: 'probe'; index: number }
+  | { kind: 'line-end'; index: number; end: 0 | 1 };
+
+export interface MarkerPosition { ref: MarkerRef; x: number; y: number; label: string }
+
+/** Every movable marker of a scenario with its position in metres. */
+export function markersOf(s: Scenario): MarkerPosition[] {
+  const out: MarkerPosition[] = [{ ref: { kind: 'source' }, x: s.source.x, y: s.source.y, label: 'source' }];
+  s.probes.forEach((p, index) => out.push({ ref: { kind: 'probe', index }, x: p.x, y: p.y, label: `probe ${p.name}` }));
+  s.lines.forEach((l, index) => {
+    out.push({ ref: { kind: 'line-end', index, end: 0 }, x: l.x0, y: l.y0, label: `start of line ${l.name}` });
+    out.push({ ref: { kind: 'line-end', index, end: 1 }, x: l.x1, y: l.y1, label: `end of line ${l.name}` });
+  });
+  return out;
+}
+
+export function sameMarker(a: MarkerRef | undefined, b: MarkerRef | undefined): boolean {
+  if (!a || !b || a.kind !== b.kind) return false;
+  if (a.kind === 'source') return true;
+  if (a.kind === 'probe') return a.index === (b as typeof a).index;
+  return a.index === (b as typeof a).index && a.end === (b as typeof a).end;
+}
+
+function haloText(ctx: CanvasRenderingContext2D, text: string, x: number, y: number, p: Palette, dpr: number): void {
+  ctx.font = `${12 * dpr}px system-ui, sans-serif`;
+  ctx.lineWidth = 3 * dpr;
+  ctx.strokeStyle = p.markerHalo;
+  ctx.strokeText(text, x, y);
+  ctx.fillStyle = p.marker;
+  ctx.fillText(text, x, y);
+}
+
+/**
+ * Source (diamond), probes (rings, named) and lines (segments with square ends, named).
+ * `moved` replaces one marker's position while it is being dragged; `selected` is ringed.
+ */
+export function drawMarkers(
+  ctx: CanvasRenderingContext2D, g: GridGeometry, s: Scenario, p: Palette, dpr: number,
+  moved?: { ref: MarkerRef; x: number; y: number }, selected?: MarkerRef,
+): void {
+  const at = (ref: MarkerRef, x: number, y: number) => (moved && sameMarker(moved.ref, ref) ? g.toPixel(moved.x, moved.y) : g.toPixel(x, y));
+  ctx.save();
+  ctx.textBaseline = 'middle';
+  s.lines.forEach((l, index) => {
+    const a = at({ kind: 'line-end', index, end: 0 }, l.x0, l.y0);
+    const b = at({ kind: 'line-end', index, end: 1 }, l.x1, l.y1);
+    for (const [colour, width] of [[p.markerHalo, 4], [p.marker, 1.75]] as const) {
+      ctx.strokeStyle = colour;
+      ctx.lineWidth = width * dpr;
+      ctx.beginPath();
+      ctx.moveTo(a[0], a[1]);
+      ctx.lineTo(b[0], b[1]);
+      ctx.stroke();
+    }
+    for (const [end, q] of [[0, a], [1, b]] as const) {
+      const r = 4 * dpr;
+      ctx.fillStyle = p.marker;
+      ctx.strokeStyle = p.markerHalo;
+      ctx.lineWidth = 1.5 * dpr;
+      ctx.fillRect(q[0] - r, q[1] - r, 2 * r, 2 * r);
+      ctx.strokeRect(q[0] - r, q[1] - r, 2 * r, 2 * r);
+      if (selected && sameMarker(selected, { kind: 'line-end', index, end })) ring(ctx, q, 9 * dpr, p, dpr);
+    }
+    haloText(ctx, l.name, (a[0] + b[0]) / 2 + 6 * dpr, (a[1] + b[1]) / 2 - 10 * dpr, p, dpr);
+  });
+  s.probes.forEach((pr, index) => {
+    const q = at({ kind: 'probe', index }, pr.x, pr.y);
+    ctx.lineWidth = 4 * dpr;
+    ctx.strokeStyle = p.markerHalo;
+    ctx.beginPath();
+    ctx.arc(q[0], q[1], 5 * dpr, 0, 2 * Math.PI);
+    ctx.stroke();
+    ctx.lineWidth = 2 * dpr;
+    ctx.strokeStyle = p.marker;
+    ctx.stroke();
+    if (selected && sameMarker(selected, { kind: 'probe', index })) ring(ctx, q, 10 * dpr, p, dpr);
+    haloText(ctx, pr.name, q[0] + 8 * dpr, q[1] - 8 * dpr, p, dpr);
+  });
+  const q = at({ kind: 'source' }, s.source.x, s.source.y);
+  const r = 6 * dpr;
+  ctx.beginPath();
+  ctx.moveTo(q[0], q[1] - r);
+  ctx.lineTo(q[0] + r, q[1]);
+  ctx.lineTo(q[0], q[1] + r);
+  ctx.lineTo(q[0] - r, q[1]);
+  ctx.closePath();
+  ctx.fillStyle = p.marker;
+  ctx.strokeStyle = p.markerHalo;
+  ctx.lineWidth = 2 * dpr;
+  ctx.fill();
+  ctx.stroke();
+  if (selected?.kind === 'source') ring(ctx, q, 11 * dpr, p, dpr);
+  ctx.restore();
+}
+
+function ring(ctx: CanvasRenderingContext2D, q: [number, number], r: number, p: Palette, dpr: number): void {
+  ctx.save();
+  ctx.setLineDash([3 * dpr, 3 * dpr]);
+  ctx.lineWidth = 2 * dpr;
+  ctx.strokeStyle = p.focus;
+  ctx.beginPath();
+  ctx.arc(q[0], q[1], r, 0, 2 * Math.PI);
+  ctx.stroke();
+  ctx.restore();
+}

@@ -1,0 +1,43 @@
+/**
+ * Messages between the page and its run worker (src/app/run-worker.ts). The worker posts
+ * the string "ready" once its engine module is compiled, then answers commands with the
+ * messages below. Every run carries a `runId`, so late messages of a run the page has
+ * already left behind are recognised and dropped.
+ */
+import type { ErrorMap } from '../compare/error-map.ts';
+import type { RunResults } from '../compare/results.ts';
+import type { Scenario } from '../scenario/types.ts';
+import type { FrameStats } from './frame-stats.ts';
+
+export type ToWorker =
+  | { type: 'run'; runId: number; scenario: Scenario; fullGridFrequency?: number }
+  | { type: 'pause' }
+  | { type: 'resume' }
+  | { type: 'stop' }
+  /** Fault injection for the recovery test: the worker throws outside any handler. */
+  | { type: 'crash' };
+
+/** A copy of Ez for the field view, possibly every `stride`-th node to keep frames small. */
+export interface FieldFrame extends FrameStats {
+  runId: number;
+  step: number;
+  /** Size of `data`: ceil(nx/stride) × ceil(ny/stride). */
+  width: number;
+  height: number;
+  stride: number;
+  /** Row-major Ez samples, V/m; row r holds j = r·stride. */
+  data: Float32Array;
+}
+
+export type FromWorker =
+  | { type: 'started'; runId: number; stepsTotal: number }
+  | { type: 'progress'; runId: number; stepsDone: number; stepsPerSecond: number; paused: boolean }
+  | ({ type: 'frame' } & FieldFrame)
+  | {
+    type: 'done'; runId: number; stopped: boolean; results: RunResults; errorMap: ErrorMap | undefined;
+    /** Wall-clock seconds from receiving the scenario to the results being ready. */
+    runSeconds: number;
+    /** Time steps per second while stepping (pauses excluded). */
+    stepsPerSecond: number;
+  }
+  | { type: 'failed'; runId: number; message: string };

@@ -1,0 +1,150 @@
+/**
+ * The page's run worker: takes a scenario, steps the engine in batches so that pause,
+ * resume and stop are heard between batches, sends progress and Ez frames at animation
+ * rate, and at the end (or on stop) sends the comparison results and the error map.
+ */
+import { errorMapOf } from '../compare/error-map.ts';
+import { collectResults } from '../compare/results.ts';
+import { Simulation } from '../engine/simulation.ts';
+import { loadEngineModule } from '../engine/wasm.ts';
+import { frameStats } from './frame-stats.ts';
+import type { FromWorker, ToWorker } from './protocol.ts';
+
+declare const self: DedicatedWorkerGlobalScope;
+
+/** Frames and progress at least this often, ms (about 30 per second)... */
+const FRAME_INTERVAL_MS = 33;
+/** ...and at least this many frames per run, so a fast run can still be replayed. */
+const FRAMES_PER_RUN = 60;
+/** Aim for batches of about this much stepping, ms, so commands are answered promptly. */
+const BATCH_TARGET_MS = 12;
+/** Largest side of a frame sent to the page; bigger grids are sampled every few nodes. */
+const FRAME_MAX_SIDE = 600;
+
+let paused = false;
+let stopRequested = false;
+let wake: (() => void) | undefined;
+
+const post = (message: FromWorker, transfer: Transferable[] = []) => self.postMessage(message, transfer);
+
+// A message-channel hop yields to the event loop without the 4 ms clamp of nested timeouts.
+const channel = new MessageChannel();
+const yieldQueue: (() => void)[] = [];
+channel.port1.onmessage = () => yieldQueue.shift()?.();
+function yieldToMessages(): Promise<void> {
+  return new Promise((resolve) => {
+    yieldQueue.push(resolve);
+    channel.port2.postMessage(0);
+  });
+}
+
+function frameOf(sim: Simulation, runId: number): FromWorker & { type: 'frame' } {
+  const { nx, ny } = sim.layout;
+  const stride = Math.max(1, Math.ceil(Math.max(nx, ny) / FRAME_MAX_SIDE));
+  const ez = sim.ezView();
+  let data: Float32Array;
+  let width = nx;
+  let height = ny;
+  if (stride === 1) {
+    data = ez.slice();
+  } else {
+    width = Math.ceil(nx / stride);
+    height = Math.ceil(ny / stride);
+    data = new Float32Array(width * height);
+    for (let r = 0; r < height; r++) {
+      const row = r * stride * nx;
+      for (let c = 0; c < width; c++) data[r * width + c] = ez[row + c * stride];
+    }
+  }
+  return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data, ...frameStats(data) };
+}
+
+async function run(message: ToWorker & { type: 'run' }): Promise<void> {
+  const { runId, scenario } = message;
+  const t0 = performance.now();
+  paused = false;
+  stopRequested = false;
+  let sim: Simulation | undefined;
+  try {
+    sim = await Simulation.create(scenario, { fullGridFrequency: message.fullGridFrequency });
+    post({ type: 'started', runId, stepsTotal: scenario.steps });
+    const cells = sim.layout.nx * sim.layout.ny;
+    const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
+    let batch = Math.max(1, Math.min(frameSteps, Math.floor(2e6 / cells)));
+    let stepping = 0; // ms spent stepping
+    let lastFrame = -Infinity;
+    let lastFrameStep = 0;
+    while (sim.stepsLeft > 0 && !stopRequested) {
+      if (paused) {
+        post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: true });
+        await new Promise<void>((resolve) => { wake = resolve; });
+        continue;
+      }
+      const start = performance.now();
+      sim.step(batch);
+      const took = performance.now() - start;
+      stepping += took;
+      if (took > 0.5) batch = Math.max(1, Math.min(frameSteps, Math.round((batch * BATCH_TARGET_MS) / took)));
+      const now = performance.now();
+      if (now - lastFrame >= FRAME_INTERVAL_MS || sim.stepsDone - lastFrameStep >= frameSteps || sim.stepsLeft === 0) {
+        lastFrame = now;
+        lastFrameStep = sim.stepsDone;
+        if (!Number.isFinite(sim.maxAbsEz())) {
+          throw new Error(`the field became infinite or NaN by step ${sim.stepsDone}; lower grid.courant below the stability limit`);
+        }
+        const frame = frameOf(sim, runId);
+        post(frame, [frame.data.buffer]);
+        post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: false });
+      }
+      await yieldToMessages();
+    }
+    if (sim.stepsDone !== lastFrameStep) {
+      const frame = frameOf(sim, runId);
+      post(frame, [frame.data.buffer]);
+    }
+    const results = collectResults(sim);
+    const errorMap = errorMapOf(sim);
+    const transfer: Transferable[] = [];
+    for (const p of results.probes) transfer.push(p.fdtd.buffer, p.exact.buffer);
+    if (errorMap) transfer.push(errorMap.db.buffer);
+    post({
+      type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMap,
+      runSeconds: (performance.now() - t0) / 1000,
+      stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
+    }, transfer);
+  } catch (e) {
+    post({ type: 'failed', runId, message: e instanceof Error ? e.message : String(e) });
+  } finally {
+    sim?.dispose();
+  }
+}
+
+self.onmessage = (event: MessageEvent<ToWorker>) => {
+  const message = event.data;
+  switch (message.type) {
+    case 'run':
+      void run(message);
+      break;
+    case 'pause':
+      paused = true;
+      break;
+    case 'resume':
+      paused = false;
+      wake?.();
+      break;
+    case 'stop':
+      stopRequested = true;
+      paused = false;
+      wake?.();
+      break;
+    case 'crash':
+      setTimeout(() => { throw new Error('deliberate worker fault (recovery test)'); }, 0);
+      break;
+  }
+};
+
+// Compile the engine before saying "ready", so pressing run does not wait for it.
+loadEngineModule().then(
+  () => self.postMessage('ready'),
+  (e: unknown) => self.postMessage({ type: 'failed', runId: -1, message: `the engine could not be loaded: ${e instanceof Error ? e.message : String(e)}` }),
+);

@@ -1,0 +1,118 @@
+import { css, html, LitElement, type PropertyValues } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import { waveformBand, waveformSpectrum } from '../engine/waveforms.ts';
+import { formatSI } from '../io/units.ts';
+import type { Waveform } from '../scenario/types.ts';
+import { controlStyles, palettes, type ThemeName } from './theme.ts';
+import { fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+
+const HEIGHT = 130;
+const POINTS = 240;
+
+/**
+ * The source spectrum |I(f)| in dB below its peak, with the centre frequency f0 and the
+ * −40 dB band edge marked: the band the grid has to resolve.
+ */
+@customElement('gg-spectrum-preview')
+export class GgSpectrumPreview extends LitElement {
+  static styles = [controlStyles, uplotStyles, css`
+    :host { display: block; }
+    .plot { min-height: ${HEIGHT}px; }
+    p { font-size: 0.8rem; margin: 0.2rem 0 0; }
+  `];
+
+  @property({ attribute: false }) waveform: Waveform | undefined;
+  @property() theme: ThemeName = 'light';
+
+  private chart: uPlot | undefined;
+  private sizer: ResizeObserver | undefined;
+  private marks = { f0: NaN, edge: NaN };
+
+  render() {
+    const w = this.waveform;
+    return html`
+      <div class="plot" role="img" aria-label="Source spectrum with the centre frequency and the −40 dB band edge marked"></div>
+      <p class="muted num">${w
+        ? html`f0 ${formatSI(this.marks.f0, 'Hz')} · −40 dB edge ${formatSI(this.marks.edge, 'Hz')}`
+        : 'Fix the waveform fields to see its spectrum.'}</p>
+    `;
+  }
+
+  protected willUpdate(changed: PropertyValues<this>): void {
+    if (changed.has('waveform') && this.waveform) {
+      const band = waveformBand(this.waveform);
+      this.marks = { f0: this.waveform.kind === 'gaussian' ? band.peakHz : (this.waveform.f0 as number), edge: band.edgeHz };
+    }
+  }
+
+  protected updated(changed: PropertyValues<this>): void {
+    if (changed.has('theme') && this.chart) {
+      this.chart.destroy();
+      this.chart = undefined;
+    }
+    if (!this.waveform) return;
+    if (!this.chart) this.create();
+    else if (changed.has('waveform')) this.chart.setData(this.data());
+  }
+
+  disconnectedCallback(): void {
+    super.disconnectedCallback();
+    this.sizer?.disconnect();
+    this.sizer = undefined;
+    this.chart?.destroy();
+    this.chart = undefined;
+  }
+
+  private data(): uPlot.AlignedData {
+    const w = this.waveform as Waveform;
+    const top = 1.3 * this.marks.edge;
+    const f = new Float64Array(POINTS);
+    const mag = new Float64Array(POINTS);
+    let peak = 0;
+    for (let k = 0; k < POINTS; k++) {
+      f[k] = (top * k) / (POINTS - 1);
+      mag[k] = Math.hypot(...waveformSpectrum(w, 1, f[k]));
+      peak = Math.max(peak, mag[k]);
+    }
+    const db: (number | null)[] = Array.from(mag, (m) => (m > 0 ? Math.max(-80, 20 * Math.log10(m / peak)) : -80));
+    return [f, db] as unknown as uPlot.AlignedData;
+  }
+
+  private create(): void {
+    const host = this.renderRoot.querySelector('.plot') as HTMLElement;
+    const palette = () => palettes[this.theme];
+    const width = Math.max(180, Math.floor(host.getBoundingClientRect().width) || 300);
+    this.chart = new uPlot({
+      width, height: HEIGHT,
+      legend: { show: false },
+      cursor: { show: false },
+      scales: { x: { time: false }, y: { range: [-80, 3] } },
+      axes: [siAxis(palette, 'f', 'Hz', 'x'), { ...siAxis(palette, '|I(f)| (dB)', '', 'y'), size: 44 }],
+      series: [{}, series({ label: '|I(f)|', colour: () => palette().fdtd, width: 1.5 })],
+      hooks: {
+        draw: [(u) => {
+          const ctx = u.ctx;
+          const p = palette();
+          ctx.save();
+          ctx.lineWidth = 1.5 * devicePixelRatio;
+          ctx.setLineDash([4 * devicePixelRatio, 3 * devicePixelRatio]);
+          for (const [f, colour] of [[this.marks.f0, p.exact], [this.marks.edge, p.predicted]] as const) {
+            if (!Number.isFinite(f)) continue;
+            const x = u.valToPos(f, 'x', true);
+            ctx.strokeStyle = colour;
+            ctx.beginPath();
+            ctx.moveTo(x, u.bbox.top);
+            ctx.lineTo(x, u.bbox.top + u.bbox.height);
+            ctx.stroke();
+          }
+          ctx.restore();
+        }],
+      },
+    }, this.data(), host);
+    this.sizer ??= fitWidth(host, () => [this.chart], HEIGHT);
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gg-spectrum-preview': GgSpectrumPreview }
+}

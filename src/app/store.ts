@@ -1,0 +1,117 @@
+/**
+ * The page's one shared store: the scenario being edited and its check, display choices,
+ * the state of the run and its results. Components never write it; gg-app passes slices
+ * down as properties and turns the components' events into controller actions
+ * (src/app/controller.ts), which call `set`.
+ *
+ * Ez frames change thirty times a second, so they bypass the reactive state: the field
+ * view subscribes to them and draws in requestAnimationFrame.
+ */
+import type { ErrorMap } from '../compare/error-map.ts';
+import type { RunResults } from '../compare/results.ts';
+import type { DerivedQuantities } from '../scenario/derived.ts';
+import type { ParseResult, Scenario } from '../scenario/types.ts';
+import type { DisplayUnits, Draft } from './draft.ts';
+import type { FieldFrame } from './protocol.ts';
+import type { ThemeName } from './theme.ts';
+
+export type RunPhase = 'idle' | 'running' | 'paused' | 'stopping' | 'done' | 'stopped' | 'failed';
+
+export interface RunState {
+  phase: RunPhase;
+  runId: number;
+  stepsDone: number;
+  stepsTotal: number;
+  /** Time steps per second while stepping. */
+  stepsPerSecond: number;
+  /** Seconds from pressing run to results, for a finished or stopped run. */
+  runSeconds?: number;
+  /** Why a run failed, or a note about how it ended. */
+  message?: string;
+}
+
+/** A message shown above the work area until dismissed. */
+export interface Notice { kind: 'error' | 'info'; title: string; lines: string[] }
+
+export interface AppState {
+  draft: Draft;
+  check: ParseResult;
+  derived: DerivedQuantities | undefined;
+  units: DisplayUnits;
+  theme: ThemeName;
+  run: RunState;
+  /** Results of the last finished or stopped run, and the scenario that produced them. */
+  results: RunResults | undefined;
+  resultsScenario: Scenario | undefined;
+  errorMap: ErrorMap | undefined;
+  /** Index into the results' frequencies for the line charts. */
+  lineFrequency: number;
+  /** Index into the scenario's frequencies for the next run's error map. */
+  mapFrequency: number;
+  /** Ez-node updates per second measured on the last run, for the run-time estimate. */
+  measuredCellRate: number | undefined;
+  notice: Notice | undefined;
+}
+
+/** Bytes of Ez frames kept for replaying a run; beyond it every other frame is dropped. */
+const FILM_BUDGET_BYTES = 96 * 2 ** 20;
+
+export class Store extends EventTarget {
+  private current: AppState;
+  private latestFrame: FieldFrame | undefined;
+  private frames: FieldFrame[] = [];
+  private filmBytes = 0;
+  private readonly frameListeners = new Set<(f: FieldFrame | undefined) => void>();
+
+  constructor(initial: AppState) {
+    super();
+    this.current = initial;
+  }
+
+  get state(): AppState {
+    return this.current;
+  }
+
+  set(patch: Partial<AppState>): void {
+    this.current = { ...this.current, ...patch };
+    this.dispatchEvent(new Event('change'));
+  }
+
+  setRun(patch: Partial<RunState>): void {
+    this.set({ run: { ...this.current.run, ...patch } });
+  }
+
+  get frame(): FieldFrame | undefined {
+    return this.latestFrame;
+  }
+
+  /** The frames of the current or last run, oldest first, for replay. */
+  get film(): readonly FieldFrame[] {
+    return this.frames;
+  }
+
+  /** Shows a new frame and keeps it for replay; undefined clears the view and the film. */
+  setFrame(frame: FieldFrame | undefined): void {
+    this.latestFrame = frame;
+    if (!frame) {
+      this.frames = [];
+      this.filmBytes = 0;
+    } else {
+      this.frames.push(frame);
+      this.filmBytes += frame.data.byteLength;
+      if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
+        const last = this.frames[this.frames.length - 1];
+        this.frames = this.frames.filter((_f, k) => k % 2 === 0);
+        if (this.frames[this.frames.length - 1] !== last) this.frames.push(last);
+        this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
+      }
+    }
+    for (const listen of this.frameListeners) listen(frame);
+  }
+
+  /** Calls `listen` on every new Ez frame; returns the unsubscribe function. */
+  onFrame(listen: (f: FieldFrame | undefined) => void): () => void {
+    this.frameListeners.add(listen);
+    return () => this.frameListeners.delete(listen);
+  }
+}

@@ -1,0 +1,74 @@
+import { css, html, LitElement, nothing } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { RunResults } from '../compare/results.ts';
+import { formatSI, formatSig } from '../io/units.ts';
+import { controlStyles } from './theme.ts';
+
+/**
+ * One row per probe and analysis frequency, with the figures the command line prints for
+ * `gridgauge run`: position, ρ, the time-domain relErrMax, and per frequency ρ in
+ * wavelengths, |Ez/I| error, phase error and the phase error the dispersion relation predicts.
+ */
+@customElement('gg-summary-table')
+export class GgSummaryTable extends LitElement {
+  static styles = [controlStyles, css`
+    :host { display: block; overflow-x: auto; }
+    table { border-collapse: collapse; width: 100%; font-size: 0.88rem; }
+    caption { text-align: left; font-size: 0.8rem; padding: 0 0 0.4rem; color: var(--gg-muted); caption-side: bottom; padding-top: 0.4rem; }
+    th, td { padding: 0.3rem 0.55rem; border-bottom: 1px solid var(--gg-grid); text-align: right; white-space: nowrap; }
+    th { font-weight: 600; color: var(--gg-muted); font-size: 0.8rem; vertical-align: bottom; }
+    th:first-child, td.name { text-align: left; }
+    td.name { font-weight: 600; }
+    tbody tr.first td { border-top: 1px solid var(--gg-border); }
+  `];
+
+  @property({ attribute: false }) results: RunResults | undefined;
+
+  render() {
+    const r = this.results;
+    if (!r) return html`<p class="muted">Run the scenario to fill this table.</p>`;
+    if (r.probes.length === 0) return html`<p class="muted">This scenario has no probes: click the field to add one.</p>`;
+    const freqs = r.frequencies;
+    const span = Math.max(1, freqs.length);
+    return html`
+      <table>
+        <caption>Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</caption>
+        <thead>
+          <tr>
+            <th scope="col">Probe</th><th scope="col">x</th><th scope="col">y</th><th scope="col">ρ</th><th scope="col">relErrMax</th>
+            <th scope="col">Frequency</th><th scope="col">ρ (λ)</th><th scope="col">|Ez/I| error</th>
+            <th scope="col">Phase error</th><th scope="col">Predicted</th>
+          </tr>
+        </thead>
+        <tbody>
+          ${r.probes.map((p) => {
+            const rows = freqs.length === 0 ? [-1] : freqs.map((_f, k) => k);
+            return rows.map((k, n) => {
+              const s = k >= 0 ? p.spectra[k] : undefined;
+              return html`
+                <tr class=${n === 0 ? 'first' : ''} data-probe=${p.name}>
+                  ${n === 0 ? html`
+                    <td class="name" rowspan=${span}>${p.name}</td>
+                    <td class="num" rowspan=${span}>${formatSI(p.x_m, 'm')}</td>
+                    <td class="num" rowspan=${span}>${formatSI(p.y_m, 'm')}</td>
+                    <td class="num" rowspan=${span}>${formatSI(p.rho_m, 'm')}</td>
+                    <td class="num relerr" rowspan=${span}>${formatSig(p.relErrMax, 3)}</td>` : nothing}
+                  ${s ? html`
+                    <td class="num">${formatSI(s.f_Hz, 'Hz')}</td>
+                    <td class="num">${formatSig(p.rho_wavelengths[k], 3)}</td>
+                    <td class="num">${formatSig(s.mag_err_dB, 3)} dB</td>
+                    <td class="num">${formatSig(s.phase_err_deg, 3)}°</td>
+                    <td class="num">${formatSig(s.predicted_phase_err_deg, 3)}°</td>`
+                  : html`<td class="muted" colspan="5">no analysis frequencies</td>`}
+                </tr>`;
+            });
+          })}
+        </tbody>
+      </table>
+    `;
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gg-summary-table': GgSummaryTable }
+}

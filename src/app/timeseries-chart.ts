@@ -1,0 +1,110 @@
+import { css, html, LitElement, type PropertyValues } from 'lit';
+import { customElement, property } from 'lit/decorators.js';
+import type { ProbeResult } from '../compare/results.ts';
+import { formatSI, formatSig } from '../io/units.ts';
+import { fileSafe, saveBlob } from './download.ts';
+import { controlStyles, palettes, type ThemeName } from './theme.ts';
+import { chartsPng, fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+
+const HEIGHT = 220;
+
+/**
+ * Ez at one probe against time: FDTD and the exact transient field laid over each other,
+ * and their difference. The chart is made once per theme; new runs only call setData.
+ */
+@customElement('gg-timeseries-chart')
+export class GgTimeseriesChart extends LitElement {
+  static styles = [controlStyles, uplotStyles, css`
+    :host { display: block; }
+    .head { display: flex; gap: 0.5rem; align-items: baseline; flex-wrap: wrap; }
+    h3 { font-size: 0.95rem; margin: 0; }
+    .figures { font-size: 0.85rem; margin-right: auto; }
+    .plot { min-height: ${HEIGHT}px; }
+    .uplot { font-family: var(--gg-font); }
+    .u-legend { font-size: 0.8rem; color: var(--gg-ink); }
+  `];
+
+  @property({ attribute: false }) probe: ProbeResult | undefined;
+  @property({ type: Number }) dt = 0;
+  @property() theme: ThemeName = 'light';
+
+  private chart: uPlot | undefined;
+  private sizer: ResizeObserver | undefined;
+
+  render() {
+    const p = this.probe;
+    return html`
+      <div class="head">
+        <h3>Probe “${p?.name ?? ''}”</h3>
+        <span class="figures muted num">
+          ρ = ${p ? formatSI(p.rho_m, 'm') : '—'} · relErrMax ${p ? formatSig(p.relErrMax, 3) : '—'}
+        </span>
+        <button class="small" @click=${this.savePng} ?disabled=${!p} aria-label="Save the time series of probe ${p?.name ?? ''} as PNG">PNG</button>
+      </div>
+      <div class="plot" role="img" aria-label="Ez against time at probe ${p?.name ?? ''}: FDTD, exact and their difference"></div>
+    `;
+  }
+
+  protected updated(changed: PropertyValues<this>): void {
+    if (changed.has('theme') && this.chart) {
+      this.chart.destroy();
+      this.chart = undefined;
+    }
+    if (!this.probe) return;
+    if (!this.chart) this.create();
+    else if (changed.has('probe') || changed.has('dt')) this.chart.setData(this.data());
+  }
+
+  disconnectedCallback(): void {
+    super.disconnectedCallback();
+    this.sizer?.disconnect();
+    this.sizer = undefined;
+    this.chart?.destroy();
+    this.chart = undefined;
+  }
+
+  private data(): uPlot.AlignedData {
+    const p = this.probe as ProbeResult;
+    const n = p.fdtd.length;
+    const t = new Float64Array(n);
+    const exact: (number | null)[] = new Array(n);
+    const diff: (number | null)[] = new Array(n);
+    for (let k = 0; k < n; k++) {
+      t[k] = k * this.dt;
+      const e = p.exact[k];
+      const ok = Number.isFinite(e);
+      exact[k] = ok ? e : null;
+      diff[k] = ok ? p.fdtd[k] - e : null;
+    }
+    return [t, p.fdtd, exact, diff] as unknown as uPlot.AlignedData;
+  }
+
+  private create(): void {
+    const host = this.renderRoot.querySelector('.plot') as HTMLElement;
+    const palette = () => palettes[this.theme];
+    const width = Math.max(200, Math.floor(host.getBoundingClientRect().width) || 480);
+    this.chart = new uPlot({
+      width, height: HEIGHT,
+      scales: { x: { time: false } },
+      axes: [siAxis(palette, 't', 's', 'x'), siAxis(palette, 'Ez', 'V/m', 'y')],
+      series: [
+        { label: 't', value: (_u, v) => (v === null ? '—' : formatSI(v, 's', 4)) },
+        series({ label: 'FDTD', colour: () => palette().fdtd, width: 2 }),
+        series({ label: 'exact', colour: () => palette().exact, dash: [6, 4], width: 1.5 }),
+        series({ label: 'FDTD − exact', colour: () => palette().difference, width: 1 }),
+      ],
+      legend: { show: true },
+      cursor: { drag: { x: true, y: false } },
+    }, this.data(), host);
+    this.sizer ??= fitWidth(host, () => [this.chart], HEIGHT);
+  }
+
+  private async savePng(): Promise<void> {
+    if (!this.chart || !this.probe) return;
+    saveBlob(`timeseries-${fileSafe(this.probe.name)}.png`, await chartsPng([this.chart], palettes[this.theme], `Ez at probe ${this.probe.name}: FDTD, exact, difference`));
+  }
+}
+
+declare global {
+  interface HTMLElementTagNameMap { 'gg-timeseries-chart': GgTimeseriesChart }
+}
