@@ -1,10 +1,14 @@
 /**
- * Bytes the engine allocates for one simulation, computed from the same sizes the engine
- * uses (assembly/engine.ts): float32 fields Ez, Hx, Hy (nx·ny each); CPML ψ arrays sized to
- * the four strips (two per field component pair); per-index CPML coefficient tables
- * (b, a, 1/κ − 1 for E and H nodes, along x and y); the source table (float64 per step);
- * the probe time series (float32 per probe per sample); running DFT accumulators (two
- * float64 per point per frequency); and optionally a full-grid DFT (two float32 per node).
+ * Bytes the engine allocates for one simulation, computed block by block the way
+ * assembly/engine.ts `allocate` claims them (each block starts on a 64-byte line): the
+ * update coefficients as vectors (64 bytes);
+ * float32 fields Ez, Hx, Hy (nx·ny each, plus 16 spare bytes); per-index CPML coefficient
+ * tables (b, a, 1/κ − 1 for E and H nodes, along x and y); CPML ψ arrays sized to the four
+ * strips (x strips: ny rows of whole vectors covering the layer's columns on each side; y
+ * strips: 2·cells rows of nx); the source table (float64 per step); the probe time series
+ * (float32 per probe per sample); the running DFTs (index, float64 scratch value and two
+ * float64 per frequency per point); and optionally a full-grid DFT (two float32 per node).
+ * The engine's own figure can exceed this by at most 63 bytes (alignment of the first block).
  */
 export interface MemoryInput {
   nx: number; ny: number; cells: number; steps: number;
@@ -14,14 +18,30 @@ export interface MemoryInput {
 /** Cap on the estimate, bytes: 2 GiB, which both Node and Chromium can give one wasm instance. */
 export const MEMORY_CAP_BYTES = 2 * 1024 ** 3;
 
+/** Columns per row whose ψ the engine keeps in the x strips (see assembly/engine.ts `allocate`). */
+export function psiColumnsPerRow(nx: number, cells: number): number {
+  if (cells === 0) return 0;
+  const left = (cells + 3) & ~3;
+  const right = (cells + 4) & ~3;
+  return nx - right < left ? nx : left + right;
+}
+
 export function engineMemoryBytes(m: MemoryInput): number {
-  const fields = 3 * m.nx * m.ny * 4;
-  // ψ for Ez∂x and Hy in the x strips (2·cells columns × ny), for Ez∂y and Hx in the y strips (2·cells rows × nx)
-  const psi = m.cells > 0 ? 2 * (2 * m.cells * m.ny + 2 * m.cells * m.nx) * 4 : 0;
-  const coefficients = 6 * (m.nx + m.ny) * 4;
-  const source = m.steps * 8;
-  const series = m.probes * (m.steps + 1) * 4;
-  const dft = m.dftPoints * m.frequencies * 16 + m.dftPoints * 4;
-  const fullGrid = m.fullGridDft ? 2 * m.nx * m.ny * 4 : 0;
-  return fields + psi + coefficients + source + series + dft + fullGrid;
+  const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
+  const cells = m.nx * m.ny;
+  const psiX = m.ny * psiColumnsPerRow(m.nx, m.cells) * 4;
+  const psiY = 2 * m.cells * m.nx * 4;
+  const blocks = [
+    64, // the four update coefficients as vectors
+    cells * 4 + 16, cells * 4 + 16, cells * 4 + 16,
+    ...Array<number>(6).fill(m.nx * 4), ...Array<number>(6).fill(m.ny * 4),
+    psiX, psiX, psiY, psiY,
+    m.steps * 8,
+    m.probes * 4, m.probes * (m.steps + 1) * 4,
+    m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
+    ...(m.fullGridDft ? [cells * 4, cells * 4] : []),
+  ];
+  // The last block is counted to its end, not to the end of its line.
+  const last = blocks.pop() as number;
+  return blocks.reduce((sum, b) => sum + line(b), 0) + last;
 }
