@@ -4,6 +4,8 @@
 import { register } from 'tsx/esm/api';
 
 register();
+// A reader that closes early (`| head`) is not an error of ours.
+process.stdout.on('error', (e) => { if (e.code === 'EPIPE') process.exit(process.exitCode ?? 0); else throw e; });
 try {
   const { main } = await import('../src/cli/main.ts');
   process.exitCode = await main(process.argv.slice(2));

@@ -1,6 +1,7 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { collectResults, type RunResults } from '../compare/results.ts';
+import { BlowUpWatch, type BlowUp } from '../engine/blow-up.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runFiles } from '../io/outputs.ts';
@@ -67,14 +68,16 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   const t0 = performance.now();
   const sim = await Simulation.create(scenario);
   let interrupted = false;
+  let blowUp: BlowUp | undefined;
   const onSignal = () => { interrupted = true; };
   process.on('SIGINT', onSignal);
   const bar = new ProgressBar('run');
+  const watch = new BlowUpWatch(sim);
   try {
     const batch = Math.max(1, Math.min(500, Math.floor(4e7 / (sim.layout.nx * sim.layout.ny))));
-    while (sim.stepsLeft > 0 && !interrupted) {
+    while (sim.stepsLeft > 0 && !interrupted && !blowUp) {
       sim.step(batch);
-      if (!Number.isFinite(sim.maxAbsEz())) throw new Error(`the field became infinite or NaN by step ${sim.stepsDone}; check grid.courant against the stability limit`);
+      blowUp = watch.check();
       bar.update(sim.stepsDone, scenario.steps, 'steps');
       await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
     }
@@ -82,9 +85,13 @@ async function commandRun(args: ParsedArgs): Promise<number> {
     process.off('SIGINT', onSignal);
   }
   bar.done(interrupted ? `interrupted at step ${sim.stepsDone} of ${scenario.steps}; writing what was computed` : '');
+  if (blowUp) process.stderr.write(`gridgauge: run stopped: ${blowUp.reason}; what was recorded up to step ${blowUp.step} is kept\n`);
   const runSeconds = secondsSince(t0);
   const results = collectResults(sim);
-  const files = runFiles(results, { run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies });
+  const files = runFiles(results, {
+    run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies,
+    ...(blowUp ? { stopped: blowUp } : interrupted ? { stopped: { step: sim.stepsDone, reason: 'interrupted' } } : {}),
+  });
   if (outDir) await writeFiles(outDir, files);
   if (json) {
     process.stdout.write(files['summary.json']);
@@ -95,7 +102,7 @@ async function commandRun(args: ParsedArgs): Promise<number> {
     if (outDir) out(`wrote timeseries.csv, spectra.csv, lines.csv, summary.json to ${outDir}`);
   }
   sim.dispose();
-  return interrupted ? 130 : 0;
+  return blowUp ? 1 : interrupted ? 130 : 0;
 }
 
 async function commandCheck(args: ParsedArgs): Promise<number> {

@@ -117,16 +117,24 @@ const waveformKind = z.enum(WAVEFORM_KINDS, {
 
 const position = (axis: string): FieldHint => ({ what: `the ${axis} coordinate in metres`, example: '0.15' });
 
+/** Smallest and largest cell size accepted, m: beyond them float32 source scaling overflows. */
+export const CELL_SPAN = [1e-9, 1e3] as const;
+function inCellSpan(d: number): boolean {
+  return !(d > 0) || (d >= CELL_SPAN[0] && d <= CELL_SPAN[1]);
+}
+const CELL_SPAN_MESSAGE = `is outside the cell sizes the float32 engine holds; use a size between ${CELL_SPAN[0]} m (1 nm) and ${CELL_SPAN[1]} m`;
+
 export const gridSchema = objectOf({
   nx: wholeNumberAtLeast(3, { what: 'the number of Ez nodes along x, absorber layers included', example: '300' }, ', too few nodes for any grid'),
   ny: wholeNumberAtLeast(3, { what: 'the number of Ez nodes along y, absorber layers included', example: '300' }, ', too few nodes for any grid'),
-  dx: positiveNumber({ what: 'the cell size along x in metres', example: '0.001' }),
-  dy: positiveNumber({ what: 'the cell size along y in metres', example: '0.001' }),
+  dx: positiveNumber({ what: 'the cell size along x in metres', example: '0.001' }).refine(inCellSpan, { error: CELL_SPAN_MESSAGE }),
+  dy: positiveNumber({ what: 'the cell size along y in metres', example: '0.001' }).refine(inCellSpan, { error: CELL_SPAN_MESSAGE }),
   courant: positiveNumber({ what: 'the Courant number c·dt/min(dx, dy), at most the stability limit (0.7071 for square cells)', example: '0.5' }),
 }, 'the grid as { "nx", "ny", "dx", "dy", "courant" }');
 
 export const mediumSchema = objectOf({
   epsR: numberAtLeast(1, { what: 'the relative permittivity εr of the medium, 1 or more', example: '1 for vacuum or air', fallback: 'leave it out for 1' }, ', which no passive medium has')
+    .refine((v) => !(v > 1e4), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 1e4 (no common dielectric comes near it); use 1e4 or less` })
     .default(MEDIUM_DEFAULTS.epsR),
 }, 'the medium as { "epsR": … }', 'for vacuum');
 
@@ -134,12 +142,16 @@ export const absorberSchema = objectOf({
   cells: wholeNumberAtLeast(0, { what: 'the CPML thickness in cells on each side, 0 for none', example: '10', fallback: 'leave it out for 10' }, '; a layer cannot be thinner than 0 cells')
     .default(ABSORBER_DEFAULTS.cells),
   order: numberAtLeast(1, { what: 'the polynomial grading order m of the CPML profile', example: '3', fallback: 'leave it out for 3' }, ', which would make the profile steepest at the inner face')
+    .refine((v) => !(v > 20), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 20 (grading beyond that leaves the layer empty); use 20 or less` })
     .default(ABSORBER_DEFAULTS.order),
   sigmaScale: numberAtLeast(0, { what: 'σmax as a multiple of the optimal σ, 0 or more', example: '1', fallback: 'leave it out for 1' }, '; a conductivity cannot be negative')
+    .refine((v) => !(v > 100), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 100 (σmax is normally within a few times σopt); use 100 or less` })
     .default(ABSORBER_DEFAULTS.sigmaScale),
   kappaMax: numberAtLeast(1, { what: 'the largest coordinate stretch κmax, 1 or more', example: '5', fallback: 'leave it out for 5' }, '; κ below 1 would shrink the layer')
+    .refine((v) => !(v > 1000), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 1000 (useful values are 1 to about 30); use 1000 or less` })
     .default(ABSORBER_DEFAULTS.kappaMax),
   alphaMax: numberAtLeast(0, { what: 'the largest complex frequency shift αmax in S/m, 0 or more', example: '0.05', fallback: 'leave it out for 0.05' }, '; a negative shift makes the layer unstable')
+    .refine((v) => !(v > 1000), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 1000 (useful values are 0 to about 1 S/m); use 1000 or less` })
     .default(ABSORBER_DEFAULTS.alphaMax),
 }, 'the absorber as { "cells", "order", "sigmaScale", "kappaMax", "alphaMax" }', 'for the defaults');
 
@@ -151,11 +163,19 @@ export const waveformSchema = objectOf({
     .optional(),
 }, 'the waveform as an object such as { "kind": "ricker", "f0": 1e10 }');
 
+/** Smallest and largest |amplitude| accepted, A. */
+export const AMPLITUDE_SPAN = [1e-12, 1e12] as const;
+
 export const sourceSchema = objectOf({
   x: finiteNumber(position('x')),
   y: finiteNumber(position('y')),
   amplitude: finiteNumber({ what: 'the peak current in amperes', example: '1', fallback: 'leave it out for 1' })
     .refine((a) => a !== 0, { error: 'is 0, which drives no field at all; use a non-zero current in amperes, e.g. 1' })
+    // The engine holds fields in float32 (about 1e±38): currents far outside this span
+    // would overflow or sink into subnormals. The problem is linear, so nothing is lost.
+    .refine((a) => a === 0 || (Math.abs(a) >= AMPLITUDE_SPAN[0] && Math.abs(a) <= AMPLITUDE_SPAN[1]), {
+      error: `is outside the span the float32 engine holds; use a current between ${AMPLITUDE_SPAN[0]} and ${AMPLITUDE_SPAN[1]} A in magnitude (results scale linearly, so 1 A loses nothing)`,
+    })
     .default(AMPLITUDE_DEFAULT),
   waveform: waveformSchema,
 }, 'the source as { "x", "y", "waveform" }');

@@ -1,0 +1,78 @@
+import { EPS0, MU0 } from '../scenario/constants.ts';
+import { stabilityLimit } from '../scenario/layout.ts';
+import type { Simulation } from './simulation.ts';
+import { waveformExtent } from './waveforms.ts';
+
+/** Why a run was stopped: the step and the likely cause, in words a user can act on. */
+export interface BlowUp { step: number; reason: string }
+
+/**
+ * Watches a running simulation between batches of steps and says when it has blown up:
+ * a NaN or infinite field, or field energy that keeps growing for a sustained stretch after
+ * the source has ended (a lossless grid with absorbers can only lose energy then).
+ * Call `check()` after each batch; it returns undefined while all is well.
+ */
+export class BlowUpWatch {
+  private peakEnergy = 0;
+  private quietMinimum = Infinity;
+  private risingChecks = 0;
+  private lastEnergy = 0;
+  private readonly sourceEndStep: number;
+
+  /** `risingChecksAllowed`: consecutive growing checks tolerated after the source ends. */
+  constructor(private readonly sim: Simulation, private readonly risingChecksAllowed = 8) {
+    const w = sim.scenario.source.waveform;
+    this.sourceEndStep = Math.ceil((w.t0 + waveformExtent(w)) / sim.dt);
+  }
+
+  /** Discrete field energy per unit length, J/m: ½Σ(ε·Ez² + μ·(Hx² + Hy²))·dx·dy. */
+  energy(): number {
+    const ez = this.sim.ezView();
+    const hx = this.sim.hxView();
+    const hy = this.sim.hyView();
+    let e = 0;
+    let h = 0;
+    for (let k = 0; k < ez.length; k++) {
+      e += ez[k] * ez[k];
+      h += hx[k] * hx[k] + hy[k] * hy[k];
+    }
+    const { dx, dy } = this.sim.layout;
+    return 0.5 * (EPS0 * this.sim.scenario.medium.epsR * e + MU0 * h) * dx * dy;
+  }
+
+  check(): BlowUp | undefined {
+    const step = this.sim.stepsDone;
+    const m = this.sim.maxAbsEz();
+    if (!Number.isFinite(m)) {
+      return { step, reason: `the field became ${Number.isNaN(m) ? 'NaN' : 'infinite'} by step ${step}; ${this.likelyCause()}` };
+    }
+    const energy = this.energy();
+    this.peakEnergy = Math.max(this.peakEnergy, energy);
+    if (step <= this.sourceEndStep) {
+      this.lastEnergy = energy;
+      return undefined;
+    }
+    this.quietMinimum = Math.min(this.quietMinimum, energy);
+    this.risingChecks = energy > this.lastEnergy ? this.risingChecks + 1 : 0;
+    this.lastEnergy = energy;
+    // Ignore growth at the float32 noise floor: only a rise well above the post-source
+    // minimum and visible against the run's peak counts.
+    const significant = energy > 4 * this.quietMinimum && energy > 1e-6 * this.peakEnergy;
+    if (this.risingChecks > this.risingChecksAllowed && significant) {
+      return { step, reason: `the field energy kept growing after the source ended (step ${step}); ${this.likelyCause()}` };
+    }
+    return undefined;
+  }
+
+  private likelyCause(): string {
+    const { grid, absorber } = this.sim.scenario;
+    const limit = stabilityLimit(grid.dx, grid.dy);
+    if (grid.courant > limit * (1 - 1e-3)) {
+      return `grid.courant ${grid.courant} is at the stability limit ${limit.toFixed(4)}, where float32 rounding can tip it over; use ${(0.98 * limit).toFixed(4)} or less`;
+    }
+    if (absorber.cells > 0 && absorber.alphaMax === 0) {
+      return 'a CPML with alphaMax 0 can grow slowly at late times; set absorber.alphaMax to about 0.05';
+    }
+    return 'check grid.courant and the absorber settings; a run inside the stability limit should not grow';
+  }
+}
