@@ -4,7 +4,7 @@ import { formatBytes, formatSI, formatSig } from '../io/units.ts';
 import { validateScenario } from '../scenario/parse.ts';
 import type { Problem, Scenario } from '../scenario/types.ts';
 import {
-  ABSORBER_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, planAbsorberStudy,
+  ABSORBER_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, gradingKey, planAbsorberStudy,
   recommendAbsorber, runAbsorberStudy, type AbsorberCandidateResult, type AbsorberStudyOptions, type AbsorberStudyPlan,
   type AbsorberStudyResult,
 } from '../studies/absorber-study.ts';
@@ -12,7 +12,7 @@ import { createPagePool } from '../studies/page-pool.ts';
 import type { StudyPool } from '../studies/pool.ts';
 import type { StudyProgress } from '../studies/progress.ts';
 import {
-  applyResolution, planResolutionStudy, predictedLags, recommendResolution, resolutionOptionProblems,
+  applyResolution, planResolutionStudy, predictedLags, recommendResolution, resolutionOptionProblems, runResolutionStudy,
   type ResolutionCandidateResult, type ResolutionStudyOptions, type ResolutionStudyPlan, type ResolutionStudyResult,
 } from '../studies/resolution-study.ts';
 import { absorberFiles, resolutionFiles } from '../studies/study-files.ts';
@@ -419,6 +419,8 @@ export class GgStudiesPanel extends LitElement {
   private palette = () => palettes[this.theme];
 
   private destroyCharts(): void {
+    this.sizer?.disconnect();
+    this.sizer = undefined;
     this.reflectionChart?.destroy();
     this.errorChart?.destroy();
     this.phaseChart?.destroy();
@@ -461,16 +463,15 @@ export class GgStudiesPanel extends LitElement {
   private prepareReflectionChart(plan: AbsorberStudyPlan): void {
     const byGrading = new Map<string, Set<number>>();
     for (const c of plan.candidates) {
-      const key = absorberKey({ ...c.absorber, cells: 0 }).slice(2);
+      const key = gradingKey(c.absorber);
       if (!byGrading.has(key)) byGrading.set(key, new Set());
       byGrading.get(key)?.add(c.absorber.cells);
     }
     const curves = [...byGrading.entries()].filter(([, cells]) => cells.size >= 2).map(([key]) => {
-      const c = plan.candidates.find((x) => absorberKey({ ...x.absorber, cells: 0 }).slice(2) === key) as AbsorberStudyPlan['candidates'][number];
+      const c = plan.candidates.find((x) => gradingKey(x.absorber) === key) as AbsorberStudyPlan['candidates'][number];
       return { key, label: gradingLabel(c.absorber) };
     });
-    this.reflectionChart?.destroy();
-    this.reflectionChart = undefined;
+    this.destroyCharts();
     this.curves = curves;
   }
 
@@ -480,7 +481,7 @@ export class GgStudiesPanel extends LitElement {
     if (!plan || rows.length === 0) return;
     const cells = [...new Set(plan.candidates.map((c) => c.absorber.cells))].sort((a, b) => a - b);
     const value = (key: string, n: number) => {
-      const c = rows.find((r) => r.cells === n && absorberKey({ ...r, cells: 0 }).slice(2) === key);
+      const c = rows.find((r) => r.cells === n && gradingKey(r) === key);
       return c && Number.isFinite(c.reflection_dB) ? c.reflection_dB : null;
     };
     const data = [

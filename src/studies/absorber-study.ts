@@ -193,7 +193,8 @@ export function studyProbes(s: Scenario): StudyProbe[] {
   return out;
 }
 
-function gradingKey(g: AbsorberGrading): string {
+/** "order/sigmaScale/kappaMax/alphaMax": the identity of a grading whatever its thickness. */
+export function gradingKey(g: AbsorberGrading): string {
   return `${g.order}/${g.sigmaScale}/${g.kappaMax}/${g.alphaMax}`;
 }
 

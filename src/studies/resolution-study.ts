@@ -138,6 +138,49 @@ export function predictedLagPerWavelength(f: number, theta: number, dx: number, 
   return Math.abs(phaseErrorPerWavelengthDeg(f, theta, dx, dy, dt, c));
 }
 
+/**
+ * Predicted lag per wavelength along x, y and the 45° diagonal at `cellsPerWavelength`
+ * cells per wavelength along x, for a Courant number and dy/dx held fixed, degrees.
+ * Works for any real N (the page draws it as a smooth curve).
+ */
+export function predictedLags(f: number, epsR: number, courant: number, aspect: number, cellsPerWavelength: number): { x: number; y: number; diagonal: number } {
+  const c = waveSpeed(epsR);
+  const dx = c / f / cellsPerWavelength;
+  const dy = aspect * dx;
+  const dt = timeStep(courant, dx, dy, epsR);
+  return {
+    x: predictedLagPerWavelength(f, 0, dx, dy, dt, c),
+    y: predictedLagPerWavelength(f, Math.PI / 2, dx, dy, dt, c),
+    diagonal: predictedLagPerWavelength(f, Math.PI / 4, dx, dy, dt, c),
+  };
+}
+
+/**
+ * The user's scenario at another resolution: dx = λ/N at frequency `f` (dy keeps its
+ * ratio to dx), the same Courant number, absorber cells, physical interior and simulated
+ * time; source, probes and lines keep their distance from the interior's corner. This is
+ * what "apply" does with a recommendation. The result still needs validation (memory cap).
+ */
+export function applyResolution(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
+  const { nx, ny, dx, dy } = s.grid;
+  const L = s.absorber.cells;
+  const newDx = waveSpeed(s.medium.epsR) / f / cellsPerWavelength;
+  const newDy = newDx * (dy / dx);
+  const interior = (count: number, old: number, d: number) => Math.max(1, Math.ceil(((count - 1 - 2 * L) * old) / d - 1e-9));
+  const mx = (x: number) => x - L * dx + L * newDx;
+  const my = (y: number) => y - L * dy + L * newDy;
+  const oldDt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
+  const newDt = timeStep(s.grid.courant, newDx, newDy, s.medium.epsR);
+  return {
+    ...s,
+    grid: { ...s.grid, dx: newDx, dy: newDy, nx: interior(nx, dx, newDx) + 1 + 2 * L, ny: interior(ny, dy, newDy) + 1 + 2 * L },
+    source: { ...s.source, x: mx(s.source.x), y: my(s.source.y) },
+    probes: s.probes.map((p) => ({ ...p, x: mx(p.x), y: my(p.y) })),
+    lines: s.lines.map((l) => ({ ...l, x0: mx(l.x0), y0: my(l.y0), x1: mx(l.x1), y1: my(l.y1) })),
+    steps: Math.max(1, Math.ceil((s.steps * oldDt) / newDt - 1e-9)),
+  };
+}
+
 export interface ResolutionCandidatePlan {
   cellsPerWavelength: number;
   dx_m: number;
@@ -154,6 +197,7 @@ export interface ResolutionStudyPlan {
   frequency_Hz: number;
   wavelength_m: number;
   courant: number;
+  epsR: number;
   /** dy/dx, held fixed. */
   aspect: number;
   /** Absorber cells assumed for the project grid. */
@@ -167,17 +211,13 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
   if (problems.length > 0) throw new RangeError(problems.join('; '));
   const f = studyFrequency(s);
   const c = waveSpeed(s.medium.epsR);
+  const aspect = s.grid.dy / s.grid.dx;
   const candidates = resolutionList(options).map((n): ResolutionCandidatePlan => {
     const scenario = measurementScenario(s, n, f);
     const { dx, dy } = scenario.grid;
-    const dt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
     return {
-      cellsPerWavelength: n, dx_m: dx, dy_m: dy, dt_s: dt, scenario,
-      predicted: {
-        x: predictedLagPerWavelength(f, 0, dx, dy, dt, c),
-        y: predictedLagPerWavelength(f, Math.PI / 2, dx, dy, dt, c),
-        diagonal: predictedLagPerWavelength(f, Math.PI / 4, dx, dy, dt, c),
-      },
+      cellsPerWavelength: n, dx_m: dx, dy_m: dy, dt_s: timeStep(s.grid.courant, dx, dy, s.medium.epsR), scenario,
+      predicted: predictedLags(f, s.medium.epsR, s.grid.courant, aspect, n),
     };
   });
   return {
@@ -186,7 +226,8 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
     frequency_Hz: f,
     wavelength_m: c / f,
     courant: s.grid.courant,
-    aspect: s.grid.dy / s.grid.dx,
+    epsR: s.medium.epsR,
+    aspect,
     absorberCells: s.absorber.cells,
     candidates,
   };
