@@ -3,7 +3,8 @@
  * so stdout stays clean for --json.
  */
 export class ProgressBar {
-  private lastShown = -1;
+  private lastShown = -10;
+  private lastShownAt = 0;
   private readonly started = performance.now();
   constructor(private readonly label: string, private readonly stream: NodeJS.WriteStream = process.stderr) {}
 
@@ -17,8 +18,9 @@ export class ProgressBar {
       const width = 28;
       const filled = Math.round(fraction * width);
       this.stream.write(`\r${this.label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${tail}\x1b[K`);
-    } else if (percent >= this.lastShown + 10 || (fraction === 1 && this.lastShown < 100)) {
+    } else if (percent >= this.lastShown + 10 || (fraction === 1 && this.lastShown < 100) || performance.now() - this.lastShownAt > 5000) {
       this.lastShown = percent - (percent % 10);
+      this.lastShownAt = performance.now();
       this.stream.write(`${this.label}: ${tail}\n`);
     }
   }
