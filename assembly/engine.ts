@@ -34,27 +34,39 @@ let sourceLength: i32 = 0;
 let seriesLength: i32 = 0; // samples per probe the series buffer holds
 
 // Columns that get x-strip corrections, row-relative: [0, leftEnd) and [rightStart, nx).
-// Both ranges are whole vectors wide (the extra columns have zero coefficients, which
-// leaves them unchanged); when they would overlap on a narrow grid, one range covers the row.
+// Both start on a multiple of 4, so every vector of a row covers the same four columns
+// whichever loop handles it; the columns added by the rounding have zero coefficients,
+// which leaves them unchanged. When the strips would overlap (a narrow grid), one range
+// covers the whole row. Strip column c numbers the corrected columns of a row from 0:
+// c = i on the left, c = leftEnd + i − rightStart on the right.
 let leftEnd: i32 = 0;
 let rightStart: i32 = 0;
-let psiRow: i32 = 0; // ψ entries per row in the x strips: leftEnd + (nx − rightStart)
+let stripVectors: i32 = 0; // vectors of strip columns per row: ⌈(leftEnd + nx − rightStart)/4⌉
+let rowVectors: i32 = 0; // ⌈nx/4⌉
 
 // ---- memory -----------------------------------------------------------------------------
 let ez: usize = 0;
 let hx: usize = 0;
 let hy: usize = 0;
-// CPML tables: b, a and g = 1/κ − 1; E tables along x hold nx entries (node i), H tables
-// along x hold nx entries (node i+½); likewise along y with ny entries.
+// CPML tables as JavaScript fills them: b, a and g = 1/κ − 1; E tables along x hold nx
+// entries (node i), H tables along x hold nx entries (node i+½); likewise along y with ny.
 let bEx: usize = 0; let aEx: usize = 0; let gEx: usize = 0;
 let bHx: usize = 0; let aHx: usize = 0; let gHx: usize = 0;
 let bEy: usize = 0; let aEy: usize = 0; let gEy: usize = 0;
 let bHy: usize = 0; let aHy: usize = 0; let gHy: usize = 0;
-// ψ arrays, sized to the strips: x strips hold psiRow columns per row, y strips 2·layer rows.
-let psiEzX: usize = 0; // Ez's ∂Hy/∂x memory, ny rows × psiRow
-let psiHyX: usize = 0; // Hy's ∂Ez/∂x memory, ny rows × psiRow
-let psiEzY: usize = 0; // Ez's ∂Hx/∂y memory, 2·layer rows × nx
-let psiHxY: usize = 0; // Hx's ∂Ez/∂y memory, 2·layer rows × nx
+// The x-strip tables again, regrouped at the first step so that one pointer walks them:
+// per vector of strip columns, the 24 floats bH, aH, gH, bE, aE, gE (four lanes each).
+let stripCoefficients: usize = 0;
+let stripCoefficientsReady = false;
+// ψ, sized to the strips, Hy's and Ez's values interleaved by vector (8 floats per vector
+// of columns: 4 for H, then 4 for E):
+let psiX: usize = 0; // x strips: row j holds stripVectors vectors (Hy ∂Ez/∂x, Ez ∂Hy/∂x)
+let psiY: usize = 0; // y strips: 2·layer rows of rowVectors vectors (Hx ∂Ez/∂y, Ez ∂Hx/∂y);
+// ψ row r = j for rows j < layer, r = layer + j − (ny − 1 − layer) for the rows below.
+
+// The four update coefficients, each splatted over a vector (chy, chx, cex, cey). Loops read
+// them from memory once, which keeps them in registers rather than re-splatted each turn.
+let coefficientVectors: usize = 0;
 
 let source: usize = 0; // f64 per step: I((n+½)dt)
 let probeCount: i32 = 0;
@@ -69,10 +81,6 @@ let dft: usize = 0; // f64 (re, im) per frequency per point, frequency-major
 let fullOmegaDt: f64 = 0; // ω·dt of the full-grid DFT; 0 = off
 let fullRe: usize = 0;
 let fullIm: usize = 0;
-
-// The four update coefficients, each splatted over a vector (chy, chx, cex, cey). Loops read
-// them from memory once, which keeps them in registers rather than re-splatted each turn.
-let coefficientVectors: usize = 0;
 
 let top: usize = 0;
 
@@ -95,14 +103,16 @@ export function allocate(
   probeCount = probes; pointCount = points; frequencyCount = frequencies;
   sourceLength = steps; seriesLength = steps + 1;
   stepCount = 0;
+  stripCoefficientsReady = false;
   if (layer == 0) {
     leftEnd = 0; rightStart = nx;
   } else {
     leftEnd = (layer + 3) & ~3; // H columns 0..layer−1, E columns 1..layer−1
-    rightStart = nx - ((layer + 4) & ~3); // H columns nx−1−layer..nx−2, E nx−layer..nx−2
+    rightStart = (nx - 1 - layer) & ~3; // H columns nx−1−layer..nx−2, E nx−layer..nx−2
     if (rightStart < leftEnd) { leftEnd = nx; rightStart = nx; }
   }
-  psiRow = leftEnd + nx - rightStart;
+  stripVectors = (leftEnd + nx - rightStart + 3) >> 2;
+  rowVectors = (nx + 3) >> 2;
   top = __heap_base;
   coefficientVectors = claim(64);
   const cells = <usize>nx * <usize>ny;
@@ -115,12 +125,9 @@ export function allocate(
   bHx = claim(<usize>nx << 2); aHx = claim(<usize>nx << 2); gHx = claim(<usize>nx << 2);
   bEy = claim(<usize>ny << 2); aEy = claim(<usize>ny << 2); gEy = claim(<usize>ny << 2);
   bHy = claim(<usize>ny << 2); aHy = claim(<usize>ny << 2); gHy = claim(<usize>ny << 2);
-  const stripX = <usize>ny * <usize>psiRow;
-  const stripY = <usize>nx * <usize>(2 * layer);
-  psiEzX = claim(stripX << 2);
-  psiHyX = claim(stripX << 2);
-  psiEzY = claim(stripY << 2);
-  psiHxY = claim(stripY << 2);
+  stripCoefficients = claim(<usize>stripVectors * 96);
+  psiX = claim(<usize>ny * <usize>stripVectors * 32);
+  psiY = claim(<usize>(2 * layer) * <usize>rowVectors * 32);
   source = claim(<usize>steps << 3);
   probeIndex = claim(<usize>probes << 2);
   series = claim((<usize>probes * <usize>seriesLength) << 2);
@@ -158,7 +165,9 @@ export function setUpdateCoefficients(
   }
 }
 
-// Pointers for JavaScript's typed-array views, in the order of `allocate`.
+// Pointers for JavaScript's typed-array views, in the order of `allocate`. The ψ blocks
+// (23–26) are internal working memory, Hy/Ez (x strips) and Hx/Ez (y strips) interleaved
+// by vector as described above; 23 and 24 name the same block, as do 25 and 26.
 export function pointerTo(which: i32): usize {
   switch (which) {
     case 0: return ez;
@@ -176,18 +185,18 @@ export function pointerTo(which: i32): usize {
     case 20: return dft;
     case 21: return fullRe;
     case 22: return fullIm;
-    case 23: return psiEzX;
-    case 24: return psiHyX;
-    case 25: return psiEzY;
-    case 26: return psiHxY;
+    case 23: return psiX;
+    case 24: return psiX;
+    case 25: return psiY;
+    case 26: return psiY;
     case 27: return pointValue;
   }
   return 0;
 }
 
-/** ψ entries per row of the x-strip arrays (pointerTo 23 and 24). */
+/** Floats per row of the x-strip ψ block (pointerTo 23): 8 per vector of strip columns. */
 export function psiXRowLength(): i32 {
-  return psiRow;
+  return stripVectors << 3;
 }
 
 export function stepsDone(): i32 {
@@ -211,60 +220,104 @@ export function stepsDone(): i32 {
   v128.store(base + (<usize>k << 2), v);
 }
 
-// ---- row pieces ---------------------------------------------------------------------------
-// Each works on columns [i0, i1) of the row that starts at node k0: whole vectors first
-// (release build), then single nodes.
-
-// Hx(i, j+½) −= chy·(Ez(i, j+1) − Ez(i, j))
-function hxRow(k0: i32, i0: i32, i1: i32): void {
-  let i = i0;
-  if (ASC_FEATURE_SIMD) {
-    const c = f32x4.splat(chy);
-    for (; i + 4 <= i1; i += 4) {
-      const k = k0 + i;
-      vSet(hx, k, f32x4.sub(vAt(hx, k), f32x4.mul(c, f32x4.sub(vAt(ez, k + nx), vAt(ez, k)))));
-    }
-  }
-  for (; i < i1; i++) {
-    const k = k0 + i;
-    f32Set(hx, k, f32At(hx, k) - chy * (f32At(ez, k + nx) - f32At(ez, k)));
-  }
+// Index (in floats) of the ψ value of column `c` in a block with `vectors` vectors per
+// row: Hy's or Hx's value; Ez's is 4 further.
+@inline function psiIndex(row: i32, vectors: i32, c: i32): i32 {
+  return ((row * vectors + (c >> 2)) << 3) + (c & 3);
 }
 
-// Hy(i+½, j) += chx·(Ez(i+1, j) − Ez(i, j)). At i = nx−1 both nodes are PEC (zero), so the
-// update leaves that Hy at zero and needs no exception.
-function hyRow(k0: i32, i0: i32, i1: i32): void {
-  let i = i0;
+@inline function psiYRow(j: i32): i32 {
+  return j < layer ? j : layer + j - (ny - 1 - layer);
+}
+
+// Regroups the x-strip coefficient tables for the vector loops (release build only).
+function prepareStripCoefficients(): void {
   if (ASC_FEATURE_SIMD) {
-    const c = f32x4.splat(chx);
-    for (; i + 4 <= i1; i += 4) {
-      const k = k0 + i;
-      vSet(hy, k, f32x4.add(vAt(hy, k), f32x4.mul(c, f32x4.sub(vAt(ez, k + 1), vAt(ez, k)))));
+    for (let c = 0; c < stripVectors << 2; c++) {
+      const i = c < leftEnd ? c : rightStart + c - leftEnd;
+      const at = stripCoefficients + ((<usize>(c >> 2) * 24 + <usize>(c & 3)) << 2);
+      const inside = i < nx;
+      store<f32>(at, inside ? f32At(bHx, i) : 0);
+      store<f32>(at, inside ? f32At(aHx, i) : 0, 16);
+      store<f32>(at, inside ? f32At(gHx, i) : 0, 32);
+      store<f32>(at, inside ? f32At(bEx, i) : 0, 48);
+      store<f32>(at, inside ? f32At(aEx, i) : 0, 64);
+      store<f32>(at, inside ? f32At(gEx, i) : 0, 80);
     }
   }
-  for (; i < i1; i++) {
+  stripCoefficientsReady = true;
+}
+
+// ---- rows 0 and ny−1: H only (their Ez nodes are PEC) ---------------------------------------
+
+function boundaryRow(j: i32, k0: i32): void {
+  const withHx = j < ny - 1;
+  let i = 0;
+  if (ASC_FEATURE_SIMD) {
+    const hxc = v128.load(coefficientVectors);
+    const hyc = v128.load(coefficientVectors, 16);
+    const row = <usize>nx << 2;
+    let pEz = ez + (<usize>k0 << 2);
+    let pHx = hx + (<usize>k0 << 2);
+    let pHy = hy + (<usize>k0 << 2);
+    for (; i + 4 <= nx; i += 4) {
+      const e = v128.load(pEz);
+      if (withHx) v128.store(pHx, f32x4.sub(v128.load(pHx), f32x4.mul(hxc, f32x4.sub(v128.load(pEz + row), e))));
+      v128.store(pHy, f32x4.add(v128.load(pHy), f32x4.mul(hyc, f32x4.sub(v128.load(pEz, 4), e))));
+      pEz += 16; pHx += 16; pHy += 16;
+    }
+  }
+  for (; i < nx; i++) {
     const k = k0 + i;
+    if (withHx) f32Set(hx, k, f32At(hx, k) - chy * (f32At(ez, k + nx) - f32At(ez, k)));
     f32Set(hy, k, f32At(hy, k) + chx * (f32At(ez, k + 1) - f32At(ez, k)));
   }
+  if (layer == 0) return;
+  if (withHx) {
+    // Row 0 lies in the top y strip.
+    const b = f32At(bHy, j);
+    const a = f32At(aHy, j);
+    const g = f32At(gHy, j);
+    const r = psiYRow(j);
+    for (let c = 0; c < nx; c++) {
+      const k = k0 + c;
+      const q = psiIndex(r, rowVectors, c);
+      const d = f32At(ez, k + nx) - f32At(ez, k);
+      const p = b * f32At(psiY, q) + a * d;
+      f32Set(psiY, q, p);
+      f32Set(hx, k, f32At(hx, k) - chy * (g * d + p));
+    }
+  }
+  for (let c = 0; c < leftEnd + nx - rightStart; c++) {
+    const i = c < leftEnd ? c : rightStart + c - leftEnd;
+    const k = k0 + i;
+    const q = psiIndex(j, stripVectors, c);
+    const d = f32At(ez, k + 1) - f32At(ez, k);
+    const p = f32At(bHx, i) * f32At(psiX, q) + f32At(aHx, i) * d;
+    f32Set(psiX, q, p);
+    f32Set(hy, k, f32At(hy, k) + chx * (f32At(gHx, i) * d + p));
+  }
 }
+
+// ---- rows 1..ny−2 ---------------------------------------------------------------------------
 
 // H and then E of one node range in a single pass, for rows and columns outside every strip:
 // Hx and Hy of a vector are computed, stored and used for its Ez at once; the Ez neighbour
 // to the right and the Hy neighbour to the left come from the adjacent vector by a shuffle.
-// Four vectors per turn, all addressed from one byte offset, keep the loop overhead small.
+// Four vectors per turn; each of the five streams has its own pointer, so every access is
+// one pointer plus a constant offset.
 @inline function fusedVector(
-  o: usize, d: usize, ezHere: v128, ezNext: v128, hyLeft: v128,
+  d: usize, ezHere: v128, ezNext: v128, hyLeft: v128,
   pEz: usize, pEzUp: usize, pHx: usize, pHxDown: usize, pHy: usize,
   hxc: v128, hyc: v128, ecx: v128, ecy: v128,
 ): v128 {
-  const a = o + d;
-  const hxNew = f32x4.sub(v128.load(pHx + a), f32x4.mul(hxc, f32x4.sub(v128.load(pEzUp + a), ezHere)));
-  const hyNew = f32x4.add(v128.load(pHy + a), f32x4.mul(hyc, f32x4.sub(f32x4.shuffle(ezHere, ezNext, 1, 2, 3, 4), ezHere)));
-  v128.store(pHx + a, hxNew);
-  v128.store(pHy + a, hyNew);
-  v128.store(pEz + a, f32x4.sub(
+  const hxNew = f32x4.sub(v128.load(pHx + d), f32x4.mul(hxc, f32x4.sub(v128.load(pEzUp + d), ezHere)));
+  const hyNew = f32x4.add(v128.load(pHy + d), f32x4.mul(hyc, f32x4.sub(f32x4.shuffle(ezHere, ezNext, 1, 2, 3, 4), ezHere)));
+  v128.store(pHx + d, hxNew);
+  v128.store(pHy + d, hyNew);
+  v128.store(pEz + d, f32x4.sub(
     f32x4.add(ezHere, f32x4.mul(ecx, f32x4.sub(hyNew, f32x4.shuffle(hyLeft, hyNew, 3, 4, 5, 6)))),
-    f32x4.mul(ecy, f32x4.sub(hxNew, v128.load(pHxDown + a)))));
+    f32x4.mul(ecy, f32x4.sub(hxNew, v128.load(pHxDown + d)))));
   return hyNew;
 }
 
@@ -275,32 +328,32 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
     const hyc = v128.load(coefficientVectors, 16);
     const ecx = v128.load(coefficientVectors, 32);
     const ecy = v128.load(coefficientVectors, 48);
-    const pEz = ez;
-    const pHx = hx;
-    const pHy = hy;
     const row = <usize>nx << 2;
-    const pEzUp = pEz + row; // Ez of row j+1
-    const pHxDown = pHx - row; // Hx of row j−1
-    let o = <usize>(k0 + i) << 2;
-    let ez0 = v128.load(pEz + o); // old Ez of the next vector
-    let hyLeft = v128.load(pHy + o - 16); // new Hy of the vector to the left
+    const o = <usize>(k0 + i) << 2;
+    let pEz = ez + o;
+    let pEzUp = pEz + row; // Ez of row j+1
+    let pHx = hx + o;
+    let pHxDown = pHx - row; // Hx of row j−1
+    let pHy = hy + o;
+    let ez0 = v128.load(pEz); // old Ez of the next vector
+    let hyLeft = v128.load(pHy - 16); // new Hy of the vector to the left
     for (; i + 16 <= i1; i += 16) {
-      const ez1 = v128.load(pEz + o, 16);
-      const ez2 = v128.load(pEz + o, 32);
-      const ez3 = v128.load(pEz + o, 48);
-      const ez4 = v128.load(pEz + o, 64);
-      const hy0 = fusedVector(o, 0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
-      const hy1 = fusedVector(o, 16, ez1, ez2, hy0, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
-      const hy2 = fusedVector(o, 32, ez2, ez3, hy1, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
-      hyLeft = fusedVector(o, 48, ez3, ez4, hy2, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const ez1 = v128.load(pEz, 16);
+      const ez2 = v128.load(pEz, 32);
+      const ez3 = v128.load(pEz, 48);
+      const ez4 = v128.load(pEz, 64);
+      const hy0 = fusedVector(0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const hy1 = fusedVector(16, ez1, ez2, hy0, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const hy2 = fusedVector(32, ez2, ez3, hy1, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      hyLeft = fusedVector(48, ez3, ez4, hy2, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
       ez0 = ez4;
-      o += 64;
+      pEz += 64; pEzUp += 64; pHx += 64; pHxDown += 64; pHy += 64;
     }
     for (; i + 4 <= i1; i += 4) {
-      const ez1 = v128.load(pEz + o, 16);
-      hyLeft = fusedVector(o, 0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const ez1 = v128.load(pEz, 16);
+      hyLeft = fusedVector(0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
       ez0 = ez1;
-      o += 16;
+      pEz += 16; pEzUp += 16; pHx += 16; pHxDown += 16; pHy += 16;
     }
   }
   for (; i < i1; i++) {
@@ -314,58 +367,136 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
   }
 }
 
-// CPML correction of Hy in an x strip: the row update applied the κ = 1, ψ = 0 form;
-// add chx·(g·∂ + ψ) with ψ ← b·ψ + a·∂. ψ for column i sits at q0 + (i − i0).
-function hyStripX(k0: i32, i0: i32, i1: i32, q0: i32): void {
+// H and then E of columns [i0, i1) of row j in one pass, with the CPML corrections the
+// flags ask for: x strip (Hy and Ez; i0 is strip column c0), y strip of Hx and y strip of
+// Ez (ψ row r). i0 is a multiple of 4. Per node the order is that of separate sweeps: the
+// κ = 1, ψ = 0 update, then the x-strip term, then the y-strip term. Call sites pass
+// constant flags, so each inlined copy keeps only the work it needs.
+@inline function stripSegment(
+  j: i32, k0: i32, i0: i32, i1: i32, c0: i32, r: i32,
+  xStrip: bool, hxStrip: bool, ezStrip: bool,
+): void {
   let i = i0;
-  let q = q0;
   if (ASC_FEATURE_SIMD) {
-    const c = f32x4.splat(chx);
+    const row = <usize>nx << 2;
+    const o = <usize>(k0 + i) << 2;
+    let pEz = ez + o;
+    let pEzUp = pEz + row;
+    let pHx = hx + o;
+    let pHxDown = pHx - row;
+    let pHy = hy + o;
+    let pCoef = stripCoefficients + <usize>(c0 >> 2) * 96;
+    let pPsiX = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
+    let pPsiY = psiY + (<usize>psiIndex(r, rowVectors, i0) << 2);
+    const hxc = v128.load(coefficientVectors);
+    const hyc = v128.load(coefficientVectors, 16);
+    const ecx = v128.load(coefficientVectors, 32);
+    const ecy = v128.load(coefficientVectors, 48);
+    const bH = f32x4.splat(hxStrip ? f32At(bHy, j) : 0);
+    const aH = f32x4.splat(hxStrip ? f32At(aHy, j) : 0);
+    const gH = f32x4.splat(hxStrip ? f32At(gHy, j) : 0);
+    const bE = f32x4.splat(ezStrip ? f32At(bEy, j) : 0);
+    const aE = f32x4.splat(ezStrip ? f32At(aEy, j) : 0);
+    const gE = f32x4.splat(ezStrip ? f32At(gEy, j) : 0);
+    let ezHere = v128.load(pEz);
+    let hyLeft = v128.load(pHy - 16);
     for (; i + 4 <= i1; i += 4) {
-      const k = k0 + i;
-      const d = f32x4.sub(vAt(ez, k + 1), vAt(ez, k));
-      const p = f32x4.add(f32x4.mul(vAt(bHx, i), vAt(psiHyX, q)), f32x4.mul(vAt(aHx, i), d));
-      vSet(psiHyX, q, p);
-      vSet(hy, k, f32x4.add(vAt(hy, k), f32x4.mul(c, f32x4.add(f32x4.mul(vAt(gHx, i), d), p))));
-      q += 4;
+      const ezNext = v128.load(pEz, 16);
+      const dy = f32x4.sub(v128.load(pEzUp), ezHere);
+      let hxNew = f32x4.sub(v128.load(pHx), f32x4.mul(hxc, dy));
+      if (hxStrip) {
+        const p = f32x4.add(f32x4.mul(bH, v128.load(pPsiY)), f32x4.mul(aH, dy));
+        v128.store(pPsiY, p);
+        hxNew = f32x4.sub(hxNew, f32x4.mul(hxc, f32x4.add(f32x4.mul(gH, dy), p)));
+      }
+      const dx = f32x4.sub(f32x4.shuffle(ezHere, ezNext, 1, 2, 3, 4), ezHere);
+      let hyNew = f32x4.add(v128.load(pHy), f32x4.mul(hyc, dx));
+      if (xStrip) {
+        const p = f32x4.add(f32x4.mul(v128.load(pCoef), v128.load(pPsiX)), f32x4.mul(v128.load(pCoef, 16), dx));
+        v128.store(pPsiX, p);
+        hyNew = f32x4.add(hyNew, f32x4.mul(hyc, f32x4.add(f32x4.mul(v128.load(pCoef, 32), dx), p)));
+      }
+      v128.store(pHx, hxNew);
+      v128.store(pHy, hyNew);
+      const dHy = f32x4.sub(hyNew, f32x4.shuffle(hyLeft, hyNew, 3, 4, 5, 6));
+      const dHx = f32x4.sub(hxNew, v128.load(pHxDown));
+      let ezNew = f32x4.sub(f32x4.add(ezHere, f32x4.mul(ecx, dHy)), f32x4.mul(ecy, dHx));
+      if (xStrip) {
+        const p = f32x4.add(f32x4.mul(v128.load(pCoef, 48), v128.load(pPsiX, 16)), f32x4.mul(v128.load(pCoef, 64), dHy));
+        v128.store(pPsiX, p, 16);
+        ezNew = f32x4.add(ezNew, f32x4.mul(ecx, f32x4.add(f32x4.mul(v128.load(pCoef, 80), dHy), p)));
+      }
+      if (ezStrip) {
+        const p = f32x4.add(f32x4.mul(bE, v128.load(pPsiY, 16)), f32x4.mul(aE, dHx));
+        v128.store(pPsiY, p, 16);
+        ezNew = f32x4.sub(ezNew, f32x4.mul(ecy, f32x4.add(f32x4.mul(gE, dHx), p)));
+      }
+      v128.store(pEz, ezNew);
+      ezHere = ezNext;
+      hyLeft = hyNew;
+      pEz += 16; pEzUp += 16; pHx += 16; pHxDown += 16; pHy += 16;
+      pCoef += 96; pPsiX += 32; pPsiY += 32;
     }
   }
   for (; i < i1; i++) {
     const k = k0 + i;
-    const d = f32At(ez, k + 1) - f32At(ez, k);
-    const p = f32At(bHx, i) * f32At(psiHyX, q) + f32At(aHx, i) * d;
-    f32Set(psiHyX, q, p);
-    f32Set(hy, k, f32At(hy, k) + chx * (f32At(gHx, i) * d + p));
-    q++;
+    const qx = psiIndex(j, stripVectors, c0 + i - i0);
+    const qy = psiIndex(r, rowVectors, i);
+    const e = f32At(ez, k);
+    const dy = f32At(ez, k + nx) - e;
+    let hxNew = f32At(hx, k) - chy * dy;
+    if (hxStrip) {
+      const p = f32At(bHy, j) * f32At(psiY, qy) + f32At(aHy, j) * dy;
+      f32Set(psiY, qy, p);
+      hxNew = hxNew - chy * (f32At(gHy, j) * dy + p);
+    }
+    const dx = f32At(ez, k + 1) - e;
+    let hyNew = f32At(hy, k) + chx * dx;
+    if (xStrip) {
+      const p = f32At(bHx, i) * f32At(psiX, qx) + f32At(aHx, i) * dx;
+      f32Set(psiX, qx, p);
+      hyNew = hyNew + chx * (f32At(gHx, i) * dx + p);
+    }
+    f32Set(hx, k, hxNew);
+    f32Set(hy, k, hyNew);
+    const dHy = hyNew - f32At(hy, k - 1);
+    const dHx = hxNew - f32At(hx, k - nx);
+    let ezNew = e + cex * dHy - cey * dHx;
+    if (xStrip) {
+      const p = f32At(bEx, i) * f32At(psiX, qx + 4) + f32At(aEx, i) * dHy;
+      f32Set(psiX, qx + 4, p);
+      ezNew = ezNew + cex * (f32At(gEx, i) * dHy + p);
+    }
+    if (ezStrip) {
+      const p = f32At(bEy, j) * f32At(psiY, qy + 4) + f32At(aEy, j) * dHx;
+      f32Set(psiY, qy + 4, p);
+      ezNew = ezNew - cey * (f32At(gEy, j) * dHx + p);
+    }
+    f32Set(ez, k, ezNew);
   }
 }
 
-// CPML correction of Hx over a whole row j of a y strip; ψ row starts at q0.
-function hxStripY(j: i32, k0: i32, q0: i32): void {
-  const b = f32At(bHy, j);
-  const a = f32At(aHy, j);
-  const g = f32At(gHy, j);
-  let i = 0;
-  if (ASC_FEATURE_SIMD) {
-    const bv = f32x4.splat(b);
-    const av = f32x4.splat(a);
-    const gv = f32x4.splat(g);
-    const c = f32x4.splat(chy);
-    for (; i + 4 <= nx; i += 4) {
-      const k = k0 + i;
-      const d = f32x4.sub(vAt(ez, k + nx), vAt(ez, k));
-      const p = f32x4.add(f32x4.mul(bv, vAt(psiHxY, q0 + i)), f32x4.mul(av, d));
-      vSet(psiHxY, q0 + i, p);
-      vSet(hx, k, f32x4.sub(vAt(hx, k), f32x4.mul(c, f32x4.add(f32x4.mul(gv, d), p))));
-    }
-  }
-  for (; i < nx; i++) {
-    const k = k0 + i;
-    const d = f32At(ez, k + nx) - f32At(ez, k);
-    const p = b * f32At(psiHxY, q0 + i) + a * d;
-    f32Set(psiHxY, q0 + i, p);
-    f32Set(hx, k, f32At(hx, k) - chy * (g * d + p));
-  }
+// A row between the y strips: left x strip, the plain columns, right x strip.
+function middleRow(j: i32, k0: i32): void {
+  stripSegment(j, k0, 0, leftEnd, 0, 0, true, false, false);
+  fusedRow(k0, leftEnd, rightStart);
+  stripSegment(j, k0, rightStart, nx, leftEnd, 0, true, false, false);
+}
+
+// A row in the y strips of both Hx and Ez.
+function yStripRow(j: i32, k0: i32): void {
+  const r = psiYRow(j);
+  stripSegment(j, k0, 0, leftEnd, 0, r, true, true, true);
+  stripSegment(j, k0, leftEnd, rightStart, 0, r, false, true, true);
+  stripSegment(j, k0, rightStart, nx, leftEnd, r, true, true, true);
+}
+
+// Row ny−1−layer lies in the y strip of Hx (which sits half a cell higher) but not of Ez.
+function hxStripRow(j: i32, k0: i32): void {
+  const r = psiYRow(j);
+  stripSegment(j, k0, 0, leftEnd, 0, r, true, true, false);
+  stripSegment(j, k0, leftEnd, rightStart, 0, r, false, true, false);
+  stripSegment(j, k0, rightStart, nx, leftEnd, r, true, true, false);
 }
 
 // Running DFT of the whole grid, one row: re += Ez·cos, im −= Ez·sin (float32).
@@ -391,174 +522,6 @@ function fullDftRow(k0: i32, c: f32, s: f32): void {
 
 // ---- one time step ------------------------------------------------------------------------
 
-// H of row j with its CPML corrections (Hx only below the top row).
-function hRowWithStrips(j: i32, k0: i32): void {
-  if (j < ny - 1) hxRow(k0, 0, nx);
-  hyRow(k0, 0, nx);
-  if (layer > 0) {
-    if (j < layer) hxStripY(j, k0, j * nx);
-    else if (j >= ny - 1 - layer && j < ny - 1) hxStripY(j, k0, (layer + j - (ny - 1 - layer)) * nx);
-    const q = j * psiRow;
-    hyStripX(k0, 0, leftEnd, q);
-    hyStripX(k0, rightStart, nx, q + leftEnd);
-  }
-}
-
-// H and then E of columns [i0, i1) of row j (1 ≤ j ≤ ny−2) in one pass, with the CPML
-// corrections the flags ask for: x strip (Hy and Ez; ψ from index q0 on), y strip of Hx
-// (ψ row starting at qH) and y strip of Ez (ψ row starting at qE). Per node the order is
-// that of separate sweeps: the κ = 1, ψ = 0 update, then the x-strip term, then the
-// y-strip term. Every call site passes constant flags, so each inlined copy keeps only
-// the work it needs.
-@inline function stripSegment(
-  j: i32, k0: i32, i0: i32, i1: i32, q0: i32, qH: i32, qE: i32,
-  xStrip: bool, hxStrip: bool, ezStrip: bool,
-): void {
-  let i = i0;
-  if (ASC_FEATURE_SIMD) {
-    const row = <usize>nx << 2;
-    const base = <usize>k0 << 2;
-    // Every address below is one of these bases plus the byte offset o of node k0 + i.
-    const pEz = ez;
-    const pHx = hx;
-    const pHy = hy;
-    const pEzUp = pEz + row;
-    const pHxDown = pHx - row;
-    const pPsiHyX = psiHyX + ((<usize>(q0 - i0) << 2) - base);
-    const pPsiEzX = psiEzX + ((<usize>(q0 - i0) << 2) - base);
-    const pBHx = bHx - base; const pAHx = aHx - base; const pGHx = gHx - base;
-    const pBEx = bEx - base; const pAEx = aEx - base; const pGEx = gEx - base;
-    const pPsiHxY = psiHxY + ((<usize>qH << 2) - base);
-    const pPsiEzY = psiEzY + ((<usize>qE << 2) - base);
-    const hxc = v128.load(coefficientVectors);
-    const hyc = v128.load(coefficientVectors, 16);
-    const ecx = v128.load(coefficientVectors, 32);
-    const ecy = v128.load(coefficientVectors, 48);
-    const bH = f32x4.splat(hxStrip ? f32At(bHy, j) : 0);
-    const aH = f32x4.splat(hxStrip ? f32At(aHy, j) : 0);
-    const gH = f32x4.splat(hxStrip ? f32At(gHy, j) : 0);
-    const bE = f32x4.splat(ezStrip ? f32At(bEy, j) : 0);
-    const aE = f32x4.splat(ezStrip ? f32At(aEy, j) : 0);
-    const gE = f32x4.splat(ezStrip ? f32At(gEy, j) : 0);
-    let o = <usize>(k0 + i) << 2;
-    let ezHere = v128.load(pEz + o);
-    let hyLeft = v128.load(pHy + o - 16);
-    for (; i + 4 <= i1; i += 4) {
-      const ezNext = v128.load(pEz + o, 16);
-      const dy = f32x4.sub(v128.load(pEzUp + o), ezHere);
-      let hxNew = f32x4.sub(v128.load(pHx + o), f32x4.mul(hxc, dy));
-      if (hxStrip) {
-        const p = f32x4.add(f32x4.mul(bH, v128.load(pPsiHxY + o)), f32x4.mul(aH, dy));
-        v128.store(pPsiHxY + o, p);
-        hxNew = f32x4.sub(hxNew, f32x4.mul(hxc, f32x4.add(f32x4.mul(gH, dy), p)));
-      }
-      const dx = f32x4.sub(f32x4.shuffle(ezHere, ezNext, 1, 2, 3, 4), ezHere);
-      let hyNew = f32x4.add(v128.load(pHy + o), f32x4.mul(hyc, dx));
-      if (xStrip) {
-        const p = f32x4.add(f32x4.mul(v128.load(pBHx + o), v128.load(pPsiHyX + o)), f32x4.mul(v128.load(pAHx + o), dx));
-        v128.store(pPsiHyX + o, p);
-        hyNew = f32x4.add(hyNew, f32x4.mul(hyc, f32x4.add(f32x4.mul(v128.load(pGHx + o), dx), p)));
-      }
-      v128.store(pHx + o, hxNew);
-      v128.store(pHy + o, hyNew);
-      const dHy = f32x4.sub(hyNew, f32x4.shuffle(hyLeft, hyNew, 3, 4, 5, 6));
-      const dHx = f32x4.sub(hxNew, v128.load(pHxDown + o));
-      let ezNew = f32x4.sub(f32x4.add(ezHere, f32x4.mul(ecx, dHy)), f32x4.mul(ecy, dHx));
-      if (xStrip) {
-        const p = f32x4.add(f32x4.mul(v128.load(pBEx + o), v128.load(pPsiEzX + o)), f32x4.mul(v128.load(pAEx + o), dHy));
-        v128.store(pPsiEzX + o, p);
-        ezNew = f32x4.add(ezNew, f32x4.mul(ecx, f32x4.add(f32x4.mul(v128.load(pGEx + o), dHy), p)));
-      }
-      if (ezStrip) {
-        const p = f32x4.add(f32x4.mul(bE, v128.load(pPsiEzY + o)), f32x4.mul(aE, dHx));
-        v128.store(pPsiEzY + o, p);
-        ezNew = f32x4.sub(ezNew, f32x4.mul(ecy, f32x4.add(f32x4.mul(gE, dHx), p)));
-      }
-      v128.store(pEz + o, ezNew);
-      ezHere = ezNext;
-      hyLeft = hyNew;
-      o += 16;
-    }
-  }
-  for (; i < i1; i++) {
-    const k = k0 + i;
-    const q = q0 + i - i0;
-    const e = f32At(ez, k);
-    const dy = f32At(ez, k + nx) - e;
-    let hxNew = f32At(hx, k) - chy * dy;
-    if (hxStrip) {
-      const p = f32At(bHy, j) * f32At(psiHxY, qH + i) + f32At(aHy, j) * dy;
-      f32Set(psiHxY, qH + i, p);
-      hxNew = hxNew - chy * (f32At(gHy, j) * dy + p);
-    }
-    const dx = f32At(ez, k + 1) - e;
-    let hyNew = f32At(hy, k) + chx * dx;
-    if (xStrip) {
-      const p = f32At(bHx, i) * f32At(psiHyX, q) + f32At(aHx, i) * dx;
-      f32Set(psiHyX, q, p);
-      hyNew = hyNew + chx * (f32At(gHx, i) * dx + p);
-    }
-    f32Set(hx, k, hxNew);
-    f32Set(hy, k, hyNew);
-    const dHy = hyNew - f32At(hy, k - 1);
-    const dHx = hxNew - f32At(hx, k - nx);
-    let ezNew = e + cex * dHy - cey * dHx;
-    if (xStrip) {
-      const p = f32At(bEx, i) * f32At(psiEzX, q) + f32At(aEx, i) * dHy;
-      f32Set(psiEzX, q, p);
-      ezNew = ezNew + cex * (f32At(gEx, i) * dHy + p);
-    }
-    if (ezStrip) {
-      const p = f32At(bEy, j) * f32At(psiEzY, qE + i) + f32At(aEy, j) * dHx;
-      f32Set(psiEzY, qE + i, p);
-      ezNew = ezNew - cey * (f32At(gEy, j) * dHx + p);
-    }
-    f32Set(ez, k, ezNew);
-  }
-}
-
-function xStripSegment(j: i32, k0: i32, i0: i32, i1: i32, q0: i32): void {
-  stripSegment(j, k0, i0, i1, q0, 0, 0, true, false, false);
-}
-function cornerSegment(j: i32, k0: i32, i0: i32, i1: i32, q0: i32, qH: i32, qE: i32): void {
-  stripSegment(j, k0, i0, i1, q0, qH, qE, true, true, true);
-}
-function ySegment(j: i32, k0: i32, i0: i32, i1: i32, qH: i32, qE: i32): void {
-  stripSegment(j, k0, i0, i1, 0, qH, qE, false, true, true);
-}
-// Row ny−1−layer lies in the y strip of Hx (Hx sits half a cell higher) but not of Ez.
-function hxCornerSegment(j: i32, k0: i32, i0: i32, i1: i32, q0: i32, qH: i32): void {
-  stripSegment(j, k0, i0, i1, q0, qH, 0, true, true, false);
-}
-function hxYSegment(j: i32, k0: i32, i0: i32, i1: i32, qH: i32): void {
-  stripSegment(j, k0, i0, i1, 0, qH, 0, false, true, false);
-}
-
-// Row j, 1 ≤ j ≤ ny−2: the left x strip, the columns between the strips, the right x strip.
-function innerRow(j: i32, k0: i32): void {
-  const q = j * psiRow;
-  const right = q + leftEnd;
-  if (layer == 0) {
-    fusedRow(k0, 0, nx);
-  } else if (j >= layer && j < ny - 1 - layer) {
-    xStripSegment(j, k0, 0, leftEnd, q);
-    fusedRow(k0, leftEnd, rightStart);
-    xStripSegment(j, k0, rightStart, nx, right);
-  } else if (j == ny - 1 - layer) {
-    const qH = layer * nx;
-    hxCornerSegment(j, k0, 0, leftEnd, q, qH);
-    hxYSegment(j, k0, leftEnd, rightStart, qH);
-    hxCornerSegment(j, k0, rightStart, nx, right, qH);
-  } else {
-    // ψ rows of the y strips: top rows r = j, bottom rows counted on from `layer`.
-    const qH = (j < layer ? j : layer + j - (ny - 1 - layer)) * nx;
-    const qE = (j < layer ? j : layer + j - (ny - layer)) * nx;
-    cornerSegment(j, k0, 0, leftEnd, q, qH, qE);
-    ySegment(j, k0, leftEnd, rightStart, qH, qE);
-    cornerSegment(j, k0, rightStart, nx, right, qH, qE);
-  }
-}
-
 function sweep(n: i32): void {
   const last = ny - 1;
   const doDft = fullRe != 0;
@@ -573,9 +536,12 @@ function sweep(n: i32): void {
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
-      hRowWithStrips(j, k0);
+      boundaryRow(j, k0);
     } else {
-      innerRow(j, k0);
+      if (layer == 0) fusedRow(k0, 0, nx);
+      else if (j >= layer && j < last - layer) middleRow(j, k0);
+      else if (j == last - layer) hxStripRow(j, k0);
+      else yStripRow(j, k0);
       f32Set(ez, k0, 0);
       f32Set(ez, k0 + nx - 1, 0);
       if (j == sourceRow && n < sourceLength) {
@@ -625,6 +591,7 @@ function record(n: i32): void {
 
 /** Advances `count` time steps: H to n+½, E to n+1 with the source current at (n+½)dt. */
 export function step(count: i32): void {
+  if (!stripCoefficientsReady) prepareStripCoefficients();
   for (let s = 0; s < count; s++) {
     const n = stepCount;
     sweep(n);

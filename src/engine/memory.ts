@@ -1,11 +1,11 @@
 /**
  * Bytes the engine allocates for one simulation, computed block by block the way
  * assembly/engine.ts `allocate` claims them (each block starts on a 64-byte line): the
- * update coefficients as vectors (64 bytes);
- * float32 fields Ez, Hx, Hy (nx·ny each, plus 16 spare bytes); per-index CPML coefficient
- * tables (b, a, 1/κ − 1 for E and H nodes, along x and y); CPML ψ arrays sized to the four
- * strips (x strips: ny rows of whole vectors covering the layer's columns on each side; y
- * strips: 2·cells rows of nx); the source table (float64 per step); the probe time series
+ * update coefficients as vectors (64 bytes); float32 fields Ez, Hx, Hy (nx·ny each, plus 16
+ * spare bytes); per-index CPML coefficient tables (b, a, 1/κ − 1 for E and H nodes, along x
+ * and y) and the x-strip ones regrouped by vector; CPML ψ arrays sized to the four strips
+ * (x strips: ny rows of whole vectors covering the layer's columns on each side; y strips:
+ * 2·cells rows of nx, rounded to vectors); the source table (float64 per step); the probe time series
  * (float32 per probe per sample); the running DFTs (index, float64 scratch value and two
  * float64 per frequency per point); and optionally a full-grid DFT (two float32 per node).
  * The engine's own figure can exceed this by at most 63 bytes (alignment of the first block).
@@ -18,24 +18,26 @@ export interface MemoryInput {
 /** Cap on the estimate, bytes: 2 GiB, which both Node and Chromium can give one wasm instance. */
 export const MEMORY_CAP_BYTES = 2 * 1024 ** 3;
 
-/** Columns per row whose ψ the engine keeps in the x strips (see assembly/engine.ts `allocate`). */
-export function psiColumnsPerRow(nx: number, cells: number): number {
+/** Vectors of four columns per row whose ψ the engine keeps in the x strips (assembly/engine.ts `allocate`). */
+export function stripVectorsPerRow(nx: number, cells: number): number {
   if (cells === 0) return 0;
-  const left = (cells + 3) & ~3;
-  const right = (cells + 4) & ~3;
-  return nx - right < left ? nx : left + right;
+  let left = (cells + 3) & ~3;
+  let right = (nx - 1 - cells) & ~3;
+  if (right < left) { left = nx; right = nx; }
+  return Math.ceil((left + nx - right) / 4);
 }
 
 export function engineMemoryBytes(m: MemoryInput): number {
   const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
   const cells = m.nx * m.ny;
-  const psiX = m.ny * psiColumnsPerRow(m.nx, m.cells) * 4;
-  const psiY = 2 * m.cells * m.nx * 4;
+  const strip = stripVectorsPerRow(m.nx, m.cells);
   const blocks = [
     64, // the four update coefficients as vectors
     cells * 4 + 16, cells * 4 + 16, cells * 4 + 16,
     ...Array<number>(6).fill(m.nx * 4), ...Array<number>(6).fill(m.ny * 4),
-    psiX, psiX, psiY, psiY,
+    strip * 96, // x-strip coefficients regrouped by vector
+    m.ny * strip * 32, // ψ of the x strips: 4 Hy and 4 Ez values per vector of columns
+    2 * m.cells * Math.ceil(m.nx / 4) * 32, // ψ of the y strips: 4 Hx and 4 Ez values per vector
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,

@@ -80,7 +80,7 @@ export class PlainKernel {
     let right = o.nx;
     if (L > 0) {
       left = (L + 3) & ~3;
-      right = o.nx - ((L + 4) & ~3);
+      right = (o.nx - 1 - L) & ~3;
       if (right < left) { left = o.nx; right = o.nx; }
     }
     this.leftEnd = left; this.rightStart = right; this.psiRow = left + o.nx - right;
