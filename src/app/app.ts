@@ -17,6 +17,7 @@ import './run-controls.ts';
 import type { RunCommand } from './run-controls.ts';
 import './setup-form.ts';
 import { Store, type AppState } from './store.ts';
+import './studies-panel.ts';
 import './summary-table.ts';
 import { controlStyles, themeTokens, type ThemeName } from './theme.ts';
 import './timeseries-chart.ts';
@@ -62,7 +63,6 @@ export class GgApp extends LitElement {
     .exports { display: flex; gap: 0.4rem; flex-wrap: wrap; align-items: center; font-size: 0.85rem; }
     .stale { font-size: 0.85rem; color: var(--gg-warn); margin: 0 0 0.5rem; }
     .empty { color: var(--gg-muted); font-size: 0.9rem; margin: 0.3rem 0; }
-    .placeholder { color: var(--gg-muted); font-size: 0.9rem; }
     label.inline { display: inline-flex; gap: 0.35rem; align-items: center; font-size: 0.85rem; }
     footer { padding: 0 1.1rem 1.5rem; font-size: 0.78rem; color: var(--gg-muted); }
   `];
@@ -291,7 +291,7 @@ export class GgApp extends LitElement {
           </section>
           <section class="card" aria-labelledby="studies-heading">
             <div class="card-head"><h2 id="studies-heading">Studies</h2></div>
-            <p class="placeholder">Absorber and resolution studies will appear here.</p>
+            <gg-studies-panel .scenario=${s.check.ok ? s.check.scenario : undefined} theme=${s.theme}></gg-studies-panel>
           </section>
         </div>
       </main>

@@ -8,7 +8,25 @@ import { canvasesToPng, saveBlob } from './download.ts';
 import { drawAbsorberOutline, drawMarkers, GridGeometry, paintGrid } from './grid-drawing.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
-const RANGES = [40, 60, 80, 100];
+/** Fixed colour ranges, dB below 0 dB; 0 stands for "fit to the interior's values". */
+const RANGES = [0, 40, 60, 80, 100];
+
+/** The 2nd and 98th percentiles of the interior's finite values, widened to 5 dB steps. */
+function fittedRange(m: ErrorMap, cells: number): [number, number] {
+  const values: number[] = [];
+  const step = Math.max(1, Math.floor(Math.sqrt((m.nx * m.ny) / 40_000)));
+  for (let j = cells; j < m.ny - cells; j += step) {
+    for (let i = cells; i < m.nx - cells; i += step) {
+      const v = m.db[j * m.nx + i];
+      if (Number.isFinite(v)) values.push(v);
+    }
+  }
+  if (values.length < 2) return [-80, 0];
+  values.sort((a, b) => a - b);
+  const lo = Math.floor(values[Math.floor(0.02 * (values.length - 1))] / 5) * 5;
+  const hi = Math.ceil(values[Math.ceil(0.98 * (values.length - 1))] / 5) * 5;
+  return hi > lo ? [lo, hi] : [lo, lo + 5];
+}
 
 /**
  * |FDTD/exact − 1| in dB over the whole grid at one frequency, from the run's full-grid
@@ -37,7 +55,9 @@ export class GgErrorMap extends LitElement {
   @property({ type: Number }) chosen = 0;
   @property() theme: ThemeName = 'light';
 
-  @state() private range = 80;
+  @state() private range = 0;
+  /** The colour range drawn, dB. */
+  private shownRange: [number, number] = [-80, 0];
 
   @query('canvas.map') private canvas!: HTMLCanvasElement;
   @query('canvas.bar') private bar!: HTMLCanvasElement;
@@ -60,7 +80,7 @@ export class GgErrorMap extends LitElement {
         </label>
         <label>Range
           <select aria-label="Range of the error colour scale" @change=${(e: Event) => { this.range = Number((e.target as HTMLSelectElement).value); }}>
-            ${RANGES.map((r) => html`<option value=${r} ?selected=${r === this.range}>−${r} dB to 0 dB</option>`)}
+            ${RANGES.map((r) => html`<option value=${r} ?selected=${r === this.range}>${r === 0 ? 'fit to the interior' : `−${r} dB to 0 dB`}</option>`)}
           </select>
         </label>
         <button class="small" @click=${this.savePng} ?disabled=${!this.map} aria-label="Save the error map as PNG">PNG</button>
@@ -70,7 +90,7 @@ export class GgErrorMap extends LitElement {
           @pointermove=${this.onMove} @pointerleave=${() => { if (this.readout) this.readout.textContent = '\u00a0'; }}></canvas>
       </div>
       <div class="legend">
-        <span class="num">−${this.range} dB</span><canvas class="bar" width="256" height="1" aria-hidden="true"></canvas><span class="num">0 dB</span>
+        <span class="num lo"></span><canvas class="bar" width="256" height="1" aria-hidden="true"></canvas><span class="num hi"></span>
         <span class="muted">|FDTD/exact − 1|${this.map ? ` at ${formatSI(this.map.f_Hz, 'Hz')}` : ''}; absorber grey</span>
       </div>
       <p class="readout muted num">\u00a0</p>
@@ -144,9 +164,13 @@ export class GgErrorMap extends LitElement {
       return;
     }
     const lut = sequentialLut();
-    const lo = -this.range;
-    const scale = (LUT_SIZE - 1) / -lo;
-    const missing = (255 << 24) | (0x80 << 16) | (0x80 << 8) | 0x80;
+    const [lo, hi] = (this.shownRange = this.range === 0 ? fittedRange(m, s.absorber.cells) : [-this.range, 0]);
+    const loText = this.renderRoot.querySelector('.legend .lo');
+    const hiText = this.renderRoot.querySelector('.legend .hi');
+    if (loText && hiText) { loText.textContent = `${formatSig(lo, 3)} dB`; hiText.textContent = `${formatSig(hi, 3)} dB`; }
+    const scale = (LUT_SIZE - 1) / (hi - lo);
+    const grey = this.theme === 'dark' ? 0x3a4248 : 0xc9ced1;
+    const missing = (255 << 24) | ((grey & 255) << 16) | (grey & 0xff00) | (grey >>> 16);
     // Inside the absorber the field is damped on purpose, so its "error" says nothing:
     // those nodes are greyed, leaving the colour range to the interior.
     const cells = s.absorber.cells;
@@ -185,7 +209,7 @@ export class GgErrorMap extends LitElement {
   private async savePng(): Promise<void> {
     if (!this.map) return;
     const p = palettes[this.theme];
-    saveBlob('error-map.png', await canvasesToPng([this.canvas], p.surface, p.ink, `|FDTD/exact − 1| at ${formatSI(this.map.f_Hz, 'Hz')}, −${this.range} dB to 0 dB`));
+    saveBlob('error-map.png', await canvasesToPng([this.canvas], p.surface, p.ink, `|FDTD/exact − 1| at ${formatSI(this.map.f_Hz, 'Hz')}, ${formatSig(this.shownRange[0], 3)} dB to ${formatSig(this.shownRange[1], 3)} dB`));
   }
 }
 

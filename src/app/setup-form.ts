@@ -4,7 +4,8 @@ import { waveformDefaults } from '../engine/waveforms.ts';
 import { formatBytes, formatSI, formatSig } from '../io/units.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import { renderPath, type PathSegment } from '../scenario/path.ts';
-import type { Problem, Scenario, WaveformKind } from '../scenario/types.ts';
+import { stabilityLimit } from '../scenario/layout.ts';
+import type { Problem, Scenario, Waveform, WaveformKind } from '../scenario/types.ts';
 import { ASSUMED_CELL_RATE } from './controller.ts';
 import {
   freshName, readAt, siToText, textToSi, UNIT_EXPONENT, type DisplayUnits, type Draft, type Edit,
@@ -58,7 +59,8 @@ export class GgSetup extends LitElement {
     .cols-2 .row { grid-template-columns: minmax(5rem, 1.3fr) repeat(2, minmax(4rem, 1fr)) auto; }
     .cols-4 .row { grid-template-columns: minmax(4.5rem, 1.2fr) repeat(4, minmax(3.2rem, 1fr)) auto; }
     .row.single { grid-template-columns: minmax(6rem, 12rem) auto; }
-    .row.single .end { align-self: end; }
+    .row.single .end { align-self: end; justify-self: start; }
+    .row-problem { margin: -0.15rem 0 0.2rem; }
     .full-row { grid-column: 1 / -1; }
     .row.head { font-size: 0.75rem; color: var(--gg-muted); }
     .list { display: flex; flex-direction: column; gap: 0.35rem; }
@@ -133,8 +135,21 @@ export class GgSetup extends LitElement {
           aria-describedby=${invalid ? `${id}-problem` : nothing}
           @input=${(e: Event) => this.onNumber(path, (e.target as HTMLInputElement).value, exponent)}
           @blur=${() => this.doneTyping(key)} />
-        ${this.problemText(path)}
+        ${o.compact ? this.registerOnly(path) : this.problemText(path)}
       </div>`;
+  }
+
+  /** Marks a path as shown by a row whose messages are listed under the whole row. */
+  private registerOnly(path: PathSegment[]): typeof nothing {
+    this.shownPaths.add(renderPath(path));
+    return nothing;
+  }
+
+  /** The messages of a list row's fields, under the row, each named by its column. */
+  private rowProblems(fields: [string, PathSegment[]][]): TemplateResult | typeof nothing {
+    const found = fields.flatMap(([label, path]) => (this.byPath.get(renderPath(path)) ?? []).map((m) => ({ label, path, m })));
+    if (found.length === 0) return nothing;
+    return html`${found.map((f) => html`<div class="problem row-problem" id="${idOf(f.path)}-problem">${f.label}: ${f.m}</div>`)}`;
   }
 
   private textField(label: string, path: PathSegment[], compact = false): TemplateResult {
@@ -149,7 +164,7 @@ export class GgSetup extends LitElement {
           .value=${typeof v === 'string' ? v : v === undefined ? '' : JSON.stringify(v)}
           aria-invalid=${invalid ? 'true' : 'false'} aria-describedby=${invalid ? `${id}-problem` : nothing}
           @input=${(e: Event) => this.emit([{ path, value: (e.target as HTMLInputElement).value }])} />
-        ${this.problemText(path)}
+        ${compact ? this.registerOnly(path) : this.problemText(path)}
       </div>`;
   }
 
@@ -205,7 +220,7 @@ export class GgSetup extends LitElement {
           ${this.field('Cell size dx', ['grid', 'dx'], { unit: 'length' })}
           ${this.field('Cell size dy', ['grid', 'dy'], { unit: 'length' })}
           ${this.field('Courant number', ['grid', 'courant'])}
-          <p class="hint">Node counts include the absorber layers. Courant number S = c·dt/min(dx, dy); the 2D limit is ${formatSig(this.derived?.stabilityLimit ?? NaN, 4)} for these cells.</p>
+          <p class="hint">Node counts include the absorber layers. Courant number S = c·dt/min(dx, dy); the 2D limit is ${formatSig(this.limitText(), 4)} for these cells.</p>
         `)}
         ${this.section('Medium', ['medium'], html`
           ${this.field('Relative permittivity εr', ['medium', 'epsR'], { placeholder: '1' })}
@@ -235,7 +250,7 @@ export class GgSetup extends LitElement {
           ${this.field('Delay t0', ['source', 'waveform', 't0'], { unit: 'time', placeholder: this.defaultText('t0') })}
           ${this.problemText(['source', 'waveform'])}
           <div class="field full-row">
-            <gg-spectrum-preview .waveform=${this.scenario?.source.waveform} theme=${this.theme}></gg-spectrum-preview>
+            <gg-spectrum-preview .waveform=${this.previewWaveform()} theme=${this.theme}></gg-spectrum-preview>
           </div>
         `)}
         ${this.section('Probes', ['probes'], this.probesList(), true)}
@@ -249,6 +264,38 @@ export class GgSetup extends LitElement {
       </form>
     `;
   }
+
+  /** The stability limit from dx and dy alone, so it shows while other fields are wrong. */
+  private limitText(): number {
+    const dx = this.num(['grid', 'dx']);
+    const dy = this.num(['grid', 'dy']);
+    return dx && dy && dx > 0 && dy > 0 ? stabilityLimit(dx, dy) : NaN;
+  }
+
+  /** The waveform with its defaults, when its own fields are right (whatever else is wrong). */
+  private previewWaveform(): Waveform | undefined {
+    if (this.scenario) return this.same(this.scenario.source.waveform);
+    if (this.problems.some((p) => p.path === 'source' || p.path.startsWith('source.waveform'))) return undefined;
+    const w = this.get(['source', 'waveform']) as Partial<Waveform> | undefined;
+    if (!w || !KINDS.some((k) => k.kind === w.kind)) return undefined;
+    const kind = w.kind as WaveformKind;
+    const f0 = this.num(['source', 'waveform', 'f0']);
+    const tau = this.num(['source', 'waveform', 'tau']);
+    if ((kind !== 'gaussian' && !f0) || (kind === 'gaussian' && !tau)) return undefined;
+    const d = waveformDefaults(kind, f0, tau);
+    const wave: Waveform = { kind, ...(f0 !== undefined ? { f0 } : {}), ...(d.tau !== undefined ? { tau: d.tau } : {}), t0: this.num(['source', 'waveform', 't0']) ?? d.t0 };
+    return this.same(wave);
+  }
+
+  /** The same object while the waveform is unchanged, so the preview does not redraw on every keystroke. */
+  private same(wave: Waveform): Waveform | undefined {
+    const key = JSON.stringify(wave);
+    if (key !== this.previewKey) { this.previewKey = key; this.preview = wave; }
+    return this.preview;
+  }
+
+  private previewKey = '';
+  private preview: Waveform | undefined;
 
   private defaultText(which: 't0' | 'tau'): string {
     const kind = this.get(['source', 'waveform', 'kind']) as WaveformKind;
@@ -304,7 +351,8 @@ export class GgSetup extends LitElement {
             ${this.field(`Probe ${k + 1} y`, ['probes', k, 'y'], { unit: 'length', compact: true })}
             <button type="button" class="small" aria-label="Remove probe ${String(p?.name ?? k + 1)}"
               @click=${() => { this.typing = new Map(); this.emit([{ path: ['probes'], value: probes.filter((_q, n) => n !== k) }]); }}>Remove</button>
-          </div>`)}
+          </div>
+          ${this.rowProblems([['name', ['probes', k, 'name']], ['x', ['probes', k, 'x']], ['y', ['probes', k, 'y']]])}`)}
         <div class="list-actions">
           <button type="button" class="small" @click=${() => {
             const [x, y] = this.newSpot();
@@ -330,7 +378,8 @@ export class GgSetup extends LitElement {
             ${this.field(`Line ${k + 1} end y`, ['lines', k, 'y1'], { unit: 'length', compact: true })}
             <button type="button" class="small" aria-label="Remove line ${String(l?.name ?? k + 1)}"
               @click=${() => { this.typing = new Map(); this.emit([{ path: ['lines'], value: lines.filter((_q, n) => n !== k) }]); }}>Remove</button>
-          </div>`)}
+          </div>
+          ${this.rowProblems([['name', ['lines', k, 'name']], ['x0', ['lines', k, 'x0']], ['y0', ['lines', k, 'y0']], ['x1', ['lines', k, 'x1']], ['y1', ['lines', k, 'y1']]])}`)}
         <div class="list-actions">
           <button type="button" class="small" @click=${() => {
             const [x1, y] = this.newSpot();
