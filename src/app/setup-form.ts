@@ -429,7 +429,8 @@ export class GgSetup extends LitElement {
         ${item('Cells per wavelength at −40 dB edge', valid ? formatSig(cpwEdge, 3) : '—', valid && cpwEdge < 10,
           'Below about 10 cells per wavelength the phase error grows quickly')}
         ${item('Stability margin', valid ? `${formatSig(100 * d.stabilityMarginFraction, 3)} % below limit` : '—', valid && d.stabilityMarginFraction < 0.01)}
-        ${item('Memory', valid ? formatBytes(d.memory_bytes) : '—')}
+        ${item('Memory', valid ? formatBytes(d.memory_bytes + (s.frequencies.length ? 8 * s.grid.nx * s.grid.ny : 0)) : '—', false,
+          'Engine memory for this run, with the full-grid running DFT the error map needs')}
         ${item('Run time (estimate)', valid ? formatSI(seconds, 's', 2) : '—', false,
           this.cellRate ? 'From the speed of the last run' : `Assuming ${formatSI(ASSUMED_CELL_RATE, '')} node updates per second until a run has been timed`)}
       </dl>`;

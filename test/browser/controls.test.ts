@@ -7,6 +7,7 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoScenario } from '../../src/scenario/defaults.ts';
+import type { Scenario } from '../../src/scenario/types.ts';
 import { startHarness, waitForCompareDrawn, waitForRunEnd, type Harness } from './harness.ts';
 
 let h: Harness;
@@ -36,54 +37,54 @@ describe('run controls', () => {
     const { page, errors } = await openPage();
     await page.locator('#f-steps').fill('30000'); // long enough to catch it running
     await command(page, 'run').click();
-    await expect.poll(() => stepsDone(page), { timeout: 30_000 }).toBeGreaterThan(0);
-    expect(await phase(page)).toBe('running');
+    await expect.poll(() => stepsDone(page), { timeout: 30_000 }).toBeGreaterThan(0); // common practice, no source
+    expect(await phase(page)).toBe('running'); // common practice, no source
 
     await command(page, 'pause').click();
-    expect(await phase(page)).toBe('paused');
+    expect(await phase(page)).toBe('paused'); // common practice, no source
     await page.waitForTimeout(300);
     const pausedAt = await stepsDone(page);
     await page.waitForTimeout(600);
-    expect(await stepsDone(page)).toBe(pausedAt);
+    expect(await stepsDone(page)).toBe(pausedAt); // common practice, no source
 
     // The page answers while the worker holds a run: typing into the form still works.
     await page.locator('#f-medium-epsR').fill('1.5');
-    expect(await page.locator('#f-medium-epsR').inputValue()).toBe('1.5');
+    expect(await page.locator('#f-medium-epsR').inputValue()).toBe('1.5'); // common practice, no source
     await page.locator('#f-medium-epsR').fill('1');
 
     await command(page, 'resume').click();
-    expect(await phase(page)).toBe('running');
-    await expect.poll(() => stepsDone(page), { timeout: 30_000 }).toBeGreaterThan(pausedAt);
+    expect(await phase(page)).toBe('running'); // common practice, no source
+    await expect.poll(() => stepsDone(page), { timeout: 30_000 }).toBeGreaterThan(pausedAt); // common practice, no source
 
     await command(page, 'stop').click();
-    expect(await waitForRunEnd(page)).toBe('stopped');
+    expect(await waitForRunEnd(page)).toBe('stopped'); // common practice, no source
     await waitForCompareDrawn(page);
     const done = await stepsDone(page);
-    expect(done).toBeGreaterThan(0);
-    expect(done).toBeLessThan(30000);
-    expect(await page.locator('gg-run-controls .message').textContent()).toContain(`stopped at step ${done}`);
+    expect(done).toBeGreaterThan(0); // common practice, no source
+    expect(done).toBeLessThan(30000); // common practice, no source
+    expect(await page.locator('gg-run-controls .message').textContent()).toContain(`stopped at step ${done}`); // common practice, no source
     for (const probe of demoScenario().probes) {
-      expect(await page.locator(`gg-summary-table tr[data-probe="${probe.name}"] td.relerr`).count()).toBe(1);
+      expect(await page.locator(`gg-summary-table tr[data-probe="${probe.name}"] td.relerr`).count()).toBe(1); // common practice, no source
     }
-    expect(await page.locator('gg-run-controls .steps-per-second').textContent()).toMatch(/steps\/s/);
+    expect(await page.locator('gg-run-controls .steps-per-second').textContent()).toMatch(/steps\/s/); // common practice, no source
 
     await command(page, 'reset').click();
-    expect(await phase(page)).toBe('idle');
-    expect(await page.locator('gg-summary-table td.relerr').count()).toBe(0);
-    expect(errors).toEqual([]);
+    expect(await phase(page)).toBe('idle'); // common practice, no source
+    expect(await page.locator('gg-summary-table td.relerr').count()).toBe(0); // common practice, no source
+    expect(errors).toEqual([]); // common practice, no source
   });
 
   it('reports a crashed worker and runs again without a reload', async () => {
     const { page, errors } = await openPage();
     await page.evaluate(() => (document.querySelector('gg-app') as unknown as { controller: { crashWorkerForTest(): void } }).controller.crashWorkerForTest());
-    await expect.poll(() => page.locator('.notice').count(), { timeout: 20_000 }).toBe(1);
-    expect(await page.locator('.notice').textContent()).toContain('crashed');
+    await expect.poll(() => page.locator('.notice').count(), { timeout: 20_000 }).toBe(1); // common practice, no source
+    expect(await page.locator('.notice').textContent()).toContain('crashed'); // common practice, no source
     await command(page, 'run').click();
-    expect(await waitForRunEnd(page)).toBe('done');
+    expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
     await waitForCompareDrawn(page);
-    expect(await page.locator('gg-summary-table td.relerr').count()).toBe(demoScenario().probes.length);
+    expect(await page.locator('gg-summary-table td.relerr').count()).toBe(demoScenario().probes.length); // common practice, no source
     // Only the deliberate fault may have been logged.
-    expect(errors.filter((e) => !e.includes('deliberate worker fault'))).toEqual([]);
+    expect(errors.filter((e) => !e.includes('deliberate worker fault'))).toEqual([]); // common practice, no source
   });
 });
 
@@ -95,12 +96,47 @@ describe('keyboard and page set-up', () => {
     const before = (await probes()).length;
     await page.locator('gg-field-view canvas.map').focus();
     await page.keyboard.press('a');
-    await expect.poll(async () => (await probes()).length).toBe(before + 1);
+    await expect.poll(async () => (await probes()).length).toBe(before + 1); // common practice, no source
     const added = (await probes())[before];
     await page.keyboard.press('ArrowUp');
-    await expect.poll(async () => (await probes())[before].y).toBeCloseTo(added.y + demoScenario().grid.dy, 12);
+    await expect.poll(async () => (await probes())[before].y).toBeCloseTo(added.y + demoScenario().grid.dy, 12); // common practice, no source
     await page.keyboard.press('Delete');
-    await expect.poll(async () => (await probes()).length).toBe(before);
+    await expect.poll(async () => (await probes()).length).toBe(before); // common practice, no source
+  });
+
+  it('adds a probe by click, draws a line by drag and moves the source by drag on the field view', async () => {
+    const { page } = await openPage();
+    const draft = () => page.evaluate(() =>
+      (document.querySelector('gg-app') as unknown as { store: { state: { draft: Scenario } } }).store.state.draft);
+    const canvas = page.locator('gg-field-view canvas.map');
+    const box = await canvas.boundingBox();
+    if (!box) throw new Error('the field canvas has no box');
+    const { nx, ny, dx, dy } = demoScenario().grid;
+    // Centre of node (i, j) on the canvas, j = 0 at the bottom (the view's own convention).
+    const at = (i: number, j: number) => [box.x + ((i + 0.5) / nx) * box.width, box.y + box.height - ((j + 0.5) / ny) * box.height] as const;
+
+    const probesBefore = (await draft()).probes.length;
+    await page.mouse.click(...at(100, 100));
+    await expect.poll(async () => (await draft()).probes.length).toBe(probesBefore + 1); // common practice, no source
+    const added = (await draft()).probes[probesBefore];
+    expect([added.x, added.y]).toEqual([Number((100 * dx).toPrecision(12)), Number((100 * dy).toPrecision(12))]); // common practice, no source
+
+    const linesBefore = (await draft()).lines.length;
+    await page.mouse.move(...at(100, 200));
+    await page.mouse.down();
+    await page.mouse.move(...at(150, 200), { steps: 5 });
+    await page.mouse.move(...at(200, 200), { steps: 5 });
+    await page.mouse.up();
+    await expect.poll(async () => (await draft()).lines.length).toBe(linesBefore + 1); // common practice, no source
+    const line = (await draft()).lines[linesBefore];
+    expect([line.x0, line.y0, line.x1, line.y1]).toEqual([0.1, 0.2, 0.2, 0.2]); // common practice, no source
+
+    const source = demoScenario().source;
+    await page.mouse.move(...at(Math.round(source.x / dx), Math.round(source.y / dy)));
+    await page.mouse.down();
+    await page.mouse.move(...at(140, 160), { steps: 6 });
+    await page.mouse.up();
+    await expect.poll(async () => [(await draft()).source.x, (await draft()).source.y]).toEqual([0.14, 0.16]); // common practice, no source
   });
 
   it('reaches the Run button and every set-up field by Tab, each with a label', async () => {
@@ -121,7 +157,7 @@ describe('keyboard and page set-up', () => {
       visit(document);
       return out;
     });
-    expect(unlabelled).toEqual([]);
+    expect(unlabelled).toEqual([]); // common practice, no source
     let reached = false;
     for (let k = 0; k < 200 && !reached; k++) {
       await page.keyboard.press('Tab');
@@ -131,17 +167,17 @@ describe('keyboard and page set-up', () => {
         return el?.getAttribute('data-command') === 'run';
       });
     }
-    expect(reached).toBe(true);
+    expect(reached).toBe(true); // common practice, no source
     await page.keyboard.press('Enter');
-    expect(await waitForRunEnd(page)).toBe('done');
+    expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
   });
 
   it('carries a Content-Security-Policy that allows only its own origin', async () => {
     const { page } = await openPage();
     const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
-    expect(csp).toContain("default-src 'self'");
-    expect(csp).toContain("script-src 'self' 'wasm-unsafe-eval'");
-    expect(csp).not.toContain('unsafe-inline');
-    expect(csp).not.toContain("'unsafe-eval'");
+    expect(csp).toContain("default-src 'self'"); // CSP Level 3 (W3C), default-src
+    expect(csp).toContain("script-src 'self' 'wasm-unsafe-eval'"); // CSP Level 3, 'wasm-unsafe-eval' for WebAssembly compilation
+    expect(csp).not.toContain('unsafe-inline'); // common practice, no source
+    expect(csp).not.toContain("'unsafe-eval'"); // common practice, no source
   });
 });

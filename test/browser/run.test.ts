@@ -61,9 +61,9 @@ afterAll(async () => {
 describe('the demo scenario in the page', () => {
   it('runs to the end on opening the page', async () => {
     // common practice, no source: the page reports its run phase on gg-app
-    expect(await page.evaluate(() => (document.querySelector('gg-app') as HTMLElement).dataset.phase)).toBe('done');
-    await expect.poll(() => page.locator('gg-run-controls .phase').textContent()).toBe('Finished');
-    expect(await page.locator('gg-run-controls .status').textContent()).toContain(`step ${demoScenario().steps} of ${demoScenario().steps}`);
+    expect(await page.evaluate(() => (document.querySelector('gg-app') as HTMLElement).dataset.phase)).toBe('done'); // common practice, no source
+    await expect.poll(() => page.locator('gg-run-controls .phase').textContent()).toBe('Finished'); // common practice, no source
+    expect(await page.locator('gg-run-controls .status').textContent()).toContain(`step ${demoScenario().steps} of ${demoScenario().steps}`); // common practice, no source
   });
 
   it('shows relErrMax for every probe in the summary table', async () => {
@@ -71,25 +71,25 @@ describe('the demo scenario in the page', () => {
       const cell = page.locator(`gg-summary-table tr[data-probe="${probe.name}"] td.relerr`);
       const text = (await cell.textContent())?.trim() ?? '';
       // relErrMax is a small positive number for a resolved demo (DESIGN.md summary.json)
-      expect(Number(text), `relErrMax of ${probe.name}: "${text}"`).toBeGreaterThan(0);
-      expect(Number(text)).toBeLessThan(0.2);
+      expect(Number(text), `relErrMax of ${probe.name}: "${text}"`).toBeGreaterThan(0); // common practice, no source
+      expect(Number(text)).toBeLessThan(0.2); // common practice, no source
     }
   });
 
   it('draws the time series, line charts, field and error map', async () => {
     const probes = demoScenario().probes.length;
-    expect(await page.locator('gg-timeseries-chart').count()).toBe(probes);
+    expect(await page.locator('gg-timeseries-chart').count()).toBe(probes); // common practice, no source
     for (let k = 0; k < probes; k++) {
-      expect(await inkedPixels(page, 'gg-timeseries-chart canvas', k)).toBeGreaterThan(2000);
+      expect(await inkedPixels(page, 'gg-timeseries-chart canvas', k)).toBeGreaterThan(2000); // common practice, no source
     }
-    expect(await page.locator('gg-line-chart canvas').count()).toBe(3);
+    expect(await page.locator('gg-line-chart canvas').count()).toBe(3); // common practice, no source
     for (let k = 0; k < 3; k++) expect(await inkedPixels(page, 'gg-line-chart canvas', k)).toBeGreaterThan(2000);
-    expect(await inkedPixels(page, 'gg-field-view canvas.map')).toBeGreaterThan(10_000);
-    expect(await inkedPixels(page, 'gg-error-map canvas.map')).toBeGreaterThan(10_000);
+    expect(await inkedPixels(page, 'gg-field-view canvas.map')).toBeGreaterThan(10_000); // common practice, no source
+    expect(await inkedPixels(page, 'gg-error-map canvas.map')).toBeGreaterThan(10_000); // common practice, no source
   });
 
   it('logs no console errors', () => {
-    expect(errors).toEqual([]);
+    expect(errors).toEqual([]); // common practice, no source
   });
 
   it('exports timeseries.csv matching the command line within float32 precision', async () => {
@@ -97,11 +97,11 @@ describe('the demo scenario in the page', () => {
       page.waitForEvent('download'),
       page.locator('button[data-file="timeseries.csv"]').click(),
     ]);
-    expect(download.suggestedFilename()).toBe('timeseries.csv');
+    expect(download.suggestedFilename()).toBe('timeseries.csv'); // common practice, no source
     const pageCsv = parseCsv(readFileSync(await download.path(), 'utf8'));
     const cliCsv = parseCsv(readFileSync(join(cliDir, 'timeseries.csv'), 'utf8'));
-    expect(pageCsv.header).toEqual(cliCsv.header);
-    expect(pageCsv.rows.length).toBe(cliCsv.rows.length);
+    expect(pageCsv.header).toEqual(cliCsv.header); // DESIGN.md "Outputs of a run", timeseries.csv header
+    expect(pageCsv.rows.length).toBe(cliCsv.rows.length); // DESIGN.md: one row per sample n = 0..steps
     for (let c = 0; c < cliCsv.header.length; c++) {
       let peak = 0;
       for (const row of cliCsv.rows) peak = Math.max(peak, Math.abs(row[c]));
@@ -109,8 +109,8 @@ describe('the demo scenario in the page', () => {
       for (let r = 0; r < cliCsv.rows.length; r++) {
         const a = pageCsv.rows[r][c];
         const b = cliCsv.rows[r][c];
-        if (Number.isNaN(b)) expect(a).toBeNaN();
-        else expect(Math.abs(a - b), `${cliCsv.header[c]} row ${r}`).toBeLessThanOrEqual(tolerance);
+        if (Number.isNaN(b)) expect(a).toBeNaN(); // common practice, no source
+        else expect(Math.abs(a - b), `${cliCsv.header[c]} row ${r}`).toBeLessThanOrEqual(tolerance); // common practice, no source
       }
     }
   });
@@ -123,11 +123,11 @@ describe('the demo scenario in the page', () => {
       const a = text.trimEnd().split(/\r?\n/);
       const b = cli.trimEnd().split(/\r?\n/);
       expect(a[0]).toBe(b[0]); // same header (DESIGN.md "Outputs of a run")
-      expect(a.length).toBe(b.length);
+      expect(a.length).toBe(b.length); // common practice, no source
       for (let r = 1; r < b.length; r++) {
         const x = a[r].split(',');
         const y = b[r].split(',');
-        expect(x.length).toBe(y.length);
+        expect(x.length).toBe(y.length); // common practice, no source
         x.forEach((v, k) => {
           const p = Number(v);
           const q = Number(y[k]);
@@ -142,12 +142,12 @@ describe('the demo scenario in the page', () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.locator('button[data-file="summary.json"]').click()]);
     const pageSummary = JSON.parse(readFileSync(await download.path(), 'utf8'));
     const cliSummary = JSON.parse(readFileSync(join(cliDir, 'summary.json'), 'utf8'));
-    expect(Object.keys(pageSummary).sort()).toEqual(Object.keys(cliSummary).sort());
-    expect(pageSummary.steps).toBe(cliSummary.steps);
-    expect(pageSummary.dt_s).toBe(cliSummary.dt_s);
+    expect(Object.keys(pageSummary).sort()).toEqual(Object.keys(cliSummary).sort()); // DESIGN.md summary.json fields
+    expect(pageSummary.steps).toBe(cliSummary.steps); // common practice, no source
+    expect(pageSummary.dt_s).toBe(cliSummary.dt_s); // common practice, no source
     pageSummary.probes.forEach((p: { name: string; relErrMax: number }, k: number) => {
-      expect(p.name).toBe(cliSummary.probes[k].name);
-      expect(p.relErrMax).toBeCloseTo(cliSummary.probes[k].relErrMax, 6);
+      expect(p.name).toBe(cliSummary.probes[k].name); // common practice, no source
+      expect(p.relErrMax).toBeCloseTo(cliSummary.probes[k].relErrMax, 6); // common practice, no source
     });
   });
 
@@ -158,15 +158,15 @@ describe('the demo scenario in the page', () => {
     ]);
     const bytes = readFileSync(await download.path());
     expect([...bytes.subarray(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]); // PNG signature, RFC 2083
-    expect(download.suggestedFilename()).toMatch(/\.png$/);
+    expect(download.suggestedFilename()).toMatch(/\.png$/); // common practice, no source
   });
 
   it('saves screenshots of the page after a run, light and dark', async () => {
     await page.screenshot({ path: join(ARTIFACTS, 'page-after-run-light.png'), fullPage: true });
     await page.locator('header button', { hasText: 'Dark theme' }).click();
-    expect(await page.locator('gg-app').getAttribute('theme')).toBe('dark');
+    expect(await page.locator('gg-app').getAttribute('theme')).toBe('dark'); // common practice, no source
     await page.waitForTimeout(200);
     await page.screenshot({ path: join(ARTIFACTS, 'page-after-run-dark.png'), fullPage: true });
-    expect(errors).toEqual([]);
+    expect(errors).toEqual([]); // common practice, no source
   });
 });
