@@ -42,6 +42,17 @@ function timeLeft(p: StudyProgress): string {
   return s < 90 ? `about ${s} s left` : `about ${Math.round(s / 60)} min left`;
 }
 
+/** An axis on a logarithmic scale, labelled only at 1, 2 and 5 × 10^k so the minor ticks stay quiet. */
+function logAxis(palette: () => (typeof palettes)[ThemeName], name: string, scaleKey: string): uPlot.Axis {
+  return {
+    ...siAxis(palette, name, '', scaleKey),
+    values: (_u: uPlot, splits: number[]) => splits.map((v) => {
+      const mantissa = v / 10 ** Math.floor(Math.log10(v) + 1e-9);
+      return [1, 2, 5].some((k) => Math.abs(mantissa - k) < 1e-6) ? formatSig(v, 3) : '';
+    }),
+  };
+}
+
 const dB = (x: number) => (Number.isFinite(x) ? x.toFixed(1) : '—');
 const gradingLabel = (c: { order: number; sigmaScale: number; kappaMax: number; alphaMax: number }) =>
   `m ${c.order}, σ×${c.sigmaScale}, κ ${c.kappaMax}, α ${c.alphaMax}`;
@@ -77,8 +88,9 @@ export class GgStudiesPanel extends LitElement {
     tr.current td:first-child::after { content: ' (current)'; color: var(--gg-muted); font-weight: 400; }
     td.fail { color: var(--gg-error); text-align: left; }
     .charts { display: grid; grid-template-columns: repeat(auto-fit, minmax(min(100%, 24rem), 1fr)); gap: 1rem; margin-top: 0.6rem; }
+    .chart { min-width: 0; }
     .chart h3 { font-size: 0.9rem; margin: 0 0 0.3rem; }
-    .plot { min-height: ${CHART_HEIGHT}px; }
+    .plot { min-height: ${CHART_HEIGHT}px; overflow: hidden; }
     .chart[hidden] { display: none; }
     .uplot { font-family: var(--gg-font); }
     .u-legend { font-size: 0.78rem; color: var(--gg-ink); }
@@ -121,7 +133,7 @@ export class GgStudiesPanel extends LitElement {
   private errorChart: uPlot | undefined;
   private phaseChart: uPlot | undefined;
   private curves: { key: string; label: string }[] = [];
-  private sizer: ResizeObserver | undefined;
+  private sizers: ResizeObserver[] = [];
   private drawQueued = false;
 
   disconnectedCallback(): void {
@@ -129,8 +141,6 @@ export class GgStudiesPanel extends LitElement {
     this.controller?.abort();
     this.pool?.dispose();
     this.pool = undefined;
-    this.sizer?.disconnect();
-    this.sizer = undefined;
     this.destroyCharts();
   }
 
@@ -419,8 +429,7 @@ export class GgStudiesPanel extends LitElement {
   private palette = () => palettes[this.theme];
 
   private destroyCharts(): void {
-    this.sizer?.disconnect();
-    this.sizer = undefined;
+    for (const sizer of this.sizers.splice(0)) sizer.disconnect();
     this.reflectionChart?.destroy();
     this.errorChart?.destroy();
     this.phaseChart?.destroy();
@@ -446,7 +455,7 @@ export class GgStudiesPanel extends LitElement {
     if (!host) return undefined;
     const width = Math.max(240, Math.floor(host.getBoundingClientRect().width) || 480);
     const chart = new uPlot({ ...options, width, height: CHART_HEIGHT } as uPlot.Options, data, host);
-    this.sizer ??= fitWidth(this.renderRoot.querySelector('.charts') as HTMLElement, () => [this.reflectionChart, this.errorChart, this.phaseChart], CHART_HEIGHT);
+    this.sizers.push(fitWidth(host, () => [chart], CHART_HEIGHT));
     return chart;
   }
 
@@ -557,12 +566,12 @@ export class GgStudiesPanel extends LitElement {
       return;
     }
     const palette = this.palette;
-    const pointsOnly = (label: string, colour: () => string) => ({
-      ...series({ label, colour, points: true }), stroke: () => 'transparent', points: { show: true, size: 7, stroke: colour, fill: colour },
+    const pointsOnly = (label: string, colour: () => string): uPlot.Series => ({
+      ...series({ label, colour, points: true }), paths: () => null, points: { show: true, size: 7, stroke: colour, fill: colour },
     });
     this.phaseChart = this.make('phase-plot', {
-      scales: { x: { time: false, distr: 3 }, y: { distr: 3 } },
-      axes: [siAxis(palette, 'cells per wavelength', '', 'x'), siAxis(palette, 'phase lag (° per wavelength)', '', 'y')],
+      scales: { x: { time: false, distr: 3, range: (_u: uPlot, min: number, max: number) => [min / 1.05, max * 1.05] }, y: { distr: 3 } },
+      axes: [logAxis(palette, 'cells per wavelength', 'x'), logAxis(palette, 'phase lag (° per wavelength)', 'y')],
       series: [
         { label: 'cells/λ', value: (_u: uPlot, v: number | null) => (v === null ? '—' : formatSig(v, 3)) },
         pointsOnly('measured, axis', () => palette().fdtd),
