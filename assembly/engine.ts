@@ -337,7 +337,10 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
     let pHy = hy + o;
     let ez0 = v128.load(pEz); // old Ez of the next vector
     let hyLeft = v128.load(pHy - 16); // new Hy of the vector to the left
-    for (; i + 16 <= i1; i += 16) {
+    const pEnd16 = pEz + (<usize>((i1 - i) & ~15) << 2);
+    const pEnd4 = pEz + (<usize>((i1 - i) & ~3) << 2);
+    i += (i1 - i) & ~3;
+    while (pEz < pEnd16) {
       const ez1 = v128.load(pEz, 16);
       const ez2 = v128.load(pEz, 32);
       const ez3 = v128.load(pEz, 48);
@@ -349,7 +352,7 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
       ez0 = ez4;
       pEz += 64; pEzUp += 64; pHx += 64; pHxDown += 64; pHy += 64;
     }
-    for (; i + 4 <= i1; i += 4) {
+    while (pEz < pEnd4) {
       const ez1 = v128.load(pEz, 16);
       hyLeft = fusedVector(0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
       ez0 = ez1;
@@ -400,7 +403,10 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
     const gE = f32x4.splat(ezStrip ? f32At(gEy, j) : 0);
     let ezHere = v128.load(pEz);
     let hyLeft = v128.load(pHy - 16);
-    for (; i + 4 <= i1; i += 4) {
+    const whole = (i1 - i0) & ~3;
+    const pEnd = pEz + (<usize>whole << 2);
+    i += whole;
+    while (pEz < pEnd) {
       const ezNext = v128.load(pEz, 16);
       const dy = f32x4.sub(v128.load(pEzUp), ezHere);
       let hxNew = f32x4.sub(v128.load(pHx), f32x4.mul(hxc, dy));

@@ -4,15 +4,17 @@ import type { Scenario } from '../scenario/types.ts';
 import { cpmlAxisTables } from './cpml-profile.ts';
 import { waveformValue } from './waveforms.ts';
 
-const f = Math.fround;
+const f = Math.fround; // coefficients as the engine holds them (float32)
 
 /**
  * The engine's algorithm written in plain TypeScript over Float32Arrays, for the benchmark's
  * "how much does WebAssembly buy" ratio: the same row-by-row sweep (H of a row, then its E),
- * the same CPML strips with ψ sized to them, the same operation order. Every intermediate
- * is rounded to float32 with Math.fround, so the fields agree with the engine bit for bit
- * (test/engine/plain-kernel.test.ts); V8 turns those fround chains into float32 arithmetic.
- * No probes or DFTs: only fields, absorber and source.
+ * the same CPML strips with ψ sized to them, the same operation order, as one would write it
+ * without WebAssembly: values are stored as float32 and the arithmetic between loads and
+ * stores is JavaScript's double precision. Rounding every intermediate to float32 with
+ * Math.fround would match the engine bit for bit but runs about 3× slower in V8, which would
+ * flatter the engine; as written the fields agree with the engine to float32 rounding
+ * (test/engine/plain-kernel.test.ts). No probes or DFTs: only fields, absorber and source.
  *
  * @example
  * const k = PlainKernel.fromScenario(scenario);
@@ -115,23 +117,22 @@ export class PlainKernel {
       const q = j * this.psiRow;
       const right = q + this.leftEnd;
       if (layer === 0) {
-        this.segment(j, k0, 0, nx, -1, -1, -1);
+        this.plainRange(k0, 0, nx);
       } else if (j >= layer && j < ny - 1 - layer) {
-        this.segment(j, k0, 0, this.leftEnd, q, -1, -1);
-        this.segment(j, k0, this.leftEnd, this.rightStart, -1, -1, -1);
-        this.segment(j, k0, this.rightStart, nx, right, -1, -1);
+        this.stripRange(j, k0, 0, this.leftEnd, q, -1, -1);
+        this.plainRange(k0, this.leftEnd, this.rightStart);
+        this.stripRange(j, k0, this.rightStart, nx, right, -1, -1);
       } else {
         const qH = (j < layer ? j : layer + j - (ny - 1 - layer)) * nx;
         const qE = j === ny - 1 - layer ? -1 : (j < layer ? j : layer + j - (ny - layer)) * nx;
-        this.segment(j, k0, 0, this.leftEnd, q, qH, qE);
-        this.segment(j, k0, this.leftEnd, this.rightStart, -1, qH, qE);
-        this.segment(j, k0, this.rightStart, nx, right, qH, qE);
+        this.stripRange(j, k0, 0, this.leftEnd, q, qH, qE);
+        this.stripRange(j, k0, this.leftEnd, this.rightStart, -1, qH, qE);
+        this.stripRange(j, k0, this.rightStart, nx, right, qH, qE);
       }
       ez[k0] = 0;
       ez[k0 + nx - 1] = 0;
       if (j === sourceRow && n < this.current.length) {
-        const k = this.sourceIndex;
-        ez[k] = f(ez[k] - f(this.sourceScale * f(this.current[n])));
+        ez[this.sourceIndex] -= this.sourceScale * this.current[n];
       }
     }
   }
@@ -140,25 +141,19 @@ export class PlainKernel {
   private boundaryRow(j: number, k0: number): void {
     const { nx, ny, layer, ez, hx, hy, chx, chy } = this;
     if (j < ny - 1) {
-      for (let i = 0; i < nx; i++) {
-        const k = k0 + i;
-        hx[k] = f(hx[k] - f(chy * f(ez[k + nx] - ez[k])));
-      }
+      for (let k = k0; k < k0 + nx; k++) hx[k] -= chy * (ez[k + nx] - ez[k]);
     }
-    for (let i = 0; i < nx; i++) {
-      const k = k0 + i;
-      hy[k] = f(hy[k] + f(chx * f(ez[k + 1] - ez[k])));
-    }
+    for (let k = k0; k < k0 + nx; k++) hy[k] += chx * (ez[k + 1] - ez[k]);
     if (layer === 0) return;
     if (j < ny - 1) {
       const b = this.y.bH[j], a = this.y.aH[j], g = this.y.gH[j];
       const psi = this.psiHxY;
       for (let i = 0; i < nx; i++) {
         const k = k0 + i;
-        const d = f(ez[k + nx] - ez[k]);
-        const p = f(f(b * psi[i]) + f(a * d));
+        const d = ez[k + nx] - ez[k];
+        const p = b * psi[i] + a * d;
         psi[i] = p;
-        hx[k] = f(hx[k] - f(chy * f(f(g * d) + p)));
+        hx[k] -= chy * (g * d + p);
       }
     }
     const q = j * this.psiRow;
@@ -172,30 +167,30 @@ export class PlainKernel {
     const psi = this.psiHyX;
     for (let i = i0, q = q0; i < i1; i++, q++) {
       const k = k0 + i;
-      const d = f(ez[k + 1] - ez[k]);
-      const p = f(f(bH[i] * psi[q]) + f(aH[i] * d));
+      const d = ez[k + 1] - ez[k];
+      const p = bH[i] * psi[q] + aH[i] * d;
       psi[q] = p;
-      hy[k] = f(hy[k] + f(chx * f(f(gH[i] * d) + p)));
+      hy[k] += chx * (gH[i] * d + p);
     }
   }
 
-  // H then E over columns [i0, i1) of row j; q0 ≥ 0 asks for the x-strip terms (ψ from q0),
-  // qH / qE ≥ 0 for the y-strip terms of Hx / Ez (ψ rows starting there).
-  private segment(j: number, k0: number, i0: number, i1: number, q0: number, qH: number, qE: number): void {
+  // H then E over columns [i0, i1) between the strips: the plain update, nothing else.
+  private plainRange(k0: number, i0: number, i1: number): void {
     const { nx, ez, hx, hy, cex, cey, chx, chy } = this;
-    if (q0 < 0 && qH < 0) {
-      // Between the strips: the plain update, nothing else.
-      for (let i = i0; i < i1; i++) {
-        const k = k0 + i;
-        const e = ez[k];
-        const hxNew = f(hx[k] - f(chy * f(ez[k + nx] - e)));
-        const hyNew = f(hy[k] + f(chx * f(ez[k + 1] - e)));
-        hx[k] = hxNew;
-        hy[k] = hyNew;
-        ez[k] = f(f(e + f(cex * f(hyNew - hy[k - 1]))) - f(cey * f(hxNew - hx[k - nx])));
-      }
-      return;
+    for (let k = k0 + i0; k < k0 + i1; k++) {
+      const e = ez[k];
+      const hxNew = hx[k] - chy * (ez[k + nx] - e);
+      const hyNew = hy[k] + chx * (ez[k + 1] - e);
+      hx[k] = hxNew;
+      hy[k] = hyNew;
+      ez[k] = e + cex * (hyNew - hy[k - 1]) - cey * (hxNew - hx[k - nx]);
     }
+  }
+
+  // H then E over columns [i0, i1) of row j with CPML terms: q0 ≥ 0 asks for the x-strip
+  // terms (ψ from q0), qH / qE ≥ 0 for the y-strip terms of Hx / Ez (ψ rows starting there).
+  private stripRange(j: number, k0: number, i0: number, i1: number, q0: number, qH: number, qE: number): void {
+    const { nx, ez, hx, hy, cex, cey, chx, chy } = this;
     const X = this.x;
     const bHy = qH >= 0 ? this.y.bH[j] : 0, aHy = qH >= 0 ? this.y.aH[j] : 0, gHy = qH >= 0 ? this.y.gH[j] : 0;
     const bEy = qE >= 0 ? this.y.bE[j] : 0, aEy = qE >= 0 ? this.y.aE[j] : 0, gEy = qE >= 0 ? this.y.gE[j] : 0;
@@ -204,34 +199,32 @@ export class PlainKernel {
       const k = k0 + i;
       const q = q0 + i - i0;
       const e = ez[k];
-      const dy = f(ez[k + nx] - e);
-      let hxNew = f(hx[k] - f(chy * dy));
+      const dy = ez[k + nx] - e;
+      hx[k] -= chy * dy;
       if (qH >= 0) {
-        const p = f(f(bHy * psiHxY[qH + i]) + f(aHy * dy));
+        const p = bHy * psiHxY[qH + i] + aHy * dy;
         psiHxY[qH + i] = p;
-        hxNew = f(hxNew - f(chy * f(f(gHy * dy) + p)));
+        hx[k] -= chy * (gHy * dy + p);
       }
-      const dx = f(ez[k + 1] - e);
-      let hyNew = f(hy[k] + f(chx * dx));
+      const dx = ez[k + 1] - e;
+      hy[k] += chx * dx;
       if (q0 >= 0) {
-        const p = f(f(X.bH[i] * psiHyX[q]) + f(X.aH[i] * dx));
+        const p = X.bH[i] * psiHyX[q] + X.aH[i] * dx;
         psiHyX[q] = p;
-        hyNew = f(hyNew + f(chx * f(f(X.gH[i] * dx) + p)));
+        hy[k] += chx * (X.gH[i] * dx + p);
       }
-      hx[k] = hxNew;
-      hy[k] = hyNew;
-      const dHy = f(hyNew - hy[k - 1]);
-      const dHx = f(hxNew - hx[k - nx]);
-      let ezNew = f(f(e + f(cex * dHy)) - f(cey * dHx));
+      const dHy = hy[k] - hy[k - 1];
+      const dHx = hx[k] - hx[k - nx];
+      let ezNew = e + cex * dHy - cey * dHx;
       if (q0 >= 0) {
-        const p = f(f(X.bE[i] * psiEzX[q]) + f(X.aE[i] * dHy));
+        const p = X.bE[i] * psiEzX[q] + X.aE[i] * dHy;
         psiEzX[q] = p;
-        ezNew = f(ezNew + f(cex * f(f(X.gE[i] * dHy) + p)));
+        ezNew += cex * (X.gE[i] * dHy + p);
       }
       if (qE >= 0) {
-        const p = f(f(bEy * psiEzY[qE + i]) + f(aEy * dHx));
+        const p = bEy * psiEzY[qE + i] + aEy * dHx;
         psiEzY[qE + i] = p;
-        ezNew = f(ezNew - f(cey * f(f(gEy * dHx) + p)));
+        ezNew -= cey * (gEy * dHx + p);
       }
       ez[k] = ezNew;
     }
