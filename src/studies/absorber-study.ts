@@ -8,6 +8,7 @@
  * the reference for all candidates; a candidate's figure is max over probes of
  * max_n |E − Eref| / max_n |Eref|, in dB.
  */
+import { MEMORY_CAP_BYTES } from '../engine/memory.ts';
 import { scenarioMemoryBytes } from '../scenario/derived.ts';
 import { layoutOf } from '../scenario/layout.ts';
 import type { Absorber, Probe, Scenario } from '../scenario/types.ts';
@@ -244,13 +245,19 @@ export function planAbsorberStudy(s: Scenario, options: AbsorberStudyOptions = {
     memory_bytes: scenarioMemoryBytes(applyAbsorber(s, absorber)),
     theory_dB: theoreticalReflectionDb(absorber, Math.min(s.grid.dx, s.grid.dy), s.medium.epsR),
   }));
+  const reference = referenceScenario(measured, steps);
+  const referenceBytes = scenarioMemoryBytes(reference);
+  if (referenceBytes > MEMORY_CAP_BYTES) {
+    throw new RangeError(`steps: the reference grid for ${steps} steps is ${reference.grid.nx} × ${reference.grid.ny} nodes and would need ` +
+      `${(referenceBytes / 2 ** 20).toFixed(0)} MiB, above the ${(MEMORY_CAP_BYTES / 2 ** 20).toFixed(0)} MiB cap; study fewer steps`);
+  }
   return {
     target_dB: options.target_dB ?? ABSORBER_DEFAULTS.target_dB,
     steps,
     dt_s: layoutOf(s).dt,
     probes,
     current: { ...s.absorber },
-    reference: referenceScenario(measured, steps),
+    reference,
     candidates,
   };
 }

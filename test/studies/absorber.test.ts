@@ -194,4 +194,11 @@ describe('absorber study rules', () => {
     expect(() => planAbsorberStudy(s, { kappaMaxes: [0.5] })).toThrow(/kappaMaxes/);
     expect(() => planAbsorberStudy(s, { sigmaScales: [NaN] })).toThrow(/sigmaScales/);
   });
+
+  it('refuses a reference grid above the memory cap, naming steps', () => {
+    // DESIGN.md: memory is estimated first and capped; common practice, no source
+    const long = makeScenario({ steps: 40_000 });
+    expect(() => planAbsorberStudy(long)).toThrow(/^steps: .* cap; study fewer steps/);
+    expect(() => planAbsorberStudy(long, { steps: 2000 })).not.toThrow();
+  });
 });
