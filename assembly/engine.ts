@@ -311,17 +311,21 @@ function boundaryRow(j: i32, k0: i32): void {
   pEz: usize, pEzUp: usize, pHx: usize, pHxDown: usize, pHy: usize,
   hxc: v128, hyc: v128, ecx: v128, ecy: v128,
 ): v128 {
+  // Hx of row j−1 is read before Hx of row j is written: on grids whose rows are a multiple
+  // of 4 KiB apart the two addresses look alike to the processor's store checks, and a read
+  // issued after the write would wait for it.
+  const hxDown = v128.load(pHxDown + d);
   const hxNew = f32x4.sub(v128.load(pHx + d), f32x4.mul(hxc, f32x4.sub(v128.load(pEzUp + d), ezHere)));
   const hyNew = f32x4.add(v128.load(pHy + d), f32x4.mul(hyc, f32x4.sub(f32x4.shuffle(ezHere, ezNext, 1, 2, 3, 4), ezHere)));
   v128.store(pHx + d, hxNew);
   v128.store(pHy + d, hyNew);
   v128.store(pEz + d, f32x4.sub(
     f32x4.add(ezHere, f32x4.mul(ecx, f32x4.sub(hyNew, f32x4.shuffle(hyLeft, hyNew, 3, 4, 5, 6)))),
-    f32x4.mul(ecy, f32x4.sub(hxNew, v128.load(pHxDown + d)))));
+    f32x4.mul(ecy, f32x4.sub(hxNew, hxDown))));
   return hyNew;
 }
 
-function fusedRow(k0: i32, i0: i32, i1: i32): void {
+@inline function fusedRange(k0: i32, i0: i32, i1: i32): void {
   let i = i0;
   if (ASC_FEATURE_SIMD) {
     const hxc = v128.load(coefficientVectors);
@@ -482,10 +486,15 @@ function fusedRow(k0: i32, i0: i32, i1: i32): void {
   }
 }
 
+// A row of a grid without absorber.
+function plainRow(k0: i32): void {
+  fusedRange(k0, 0, nx);
+}
+
 // A row between the y strips: left x strip, the plain columns, right x strip.
 function middleRow(j: i32, k0: i32): void {
   stripSegment(j, k0, 0, leftEnd, 0, 0, true, false, false);
-  fusedRow(k0, leftEnd, rightStart);
+  fusedRange(k0, leftEnd, rightStart);
   stripSegment(j, k0, rightStart, nx, leftEnd, 0, true, false, false);
 }
 
@@ -544,7 +553,7 @@ function sweep(n: i32): void {
     if (j == 0 || j == last) {
       boundaryRow(j, k0);
     } else {
-      if (layer == 0) fusedRow(k0, 0, nx);
+      if (layer == 0) plainRow(k0);
       else if (j >= layer && j < last - layer) middleRow(j, k0);
       else if (j == last - layer) hxStripRow(j, k0);
       else yStripRow(j, k0);
