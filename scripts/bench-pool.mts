@@ -28,10 +28,15 @@ if (!parsed.ok) {
 const scenario = parsed.scenario;
 const repeats = Math.max(1, Number(values.repeats));
 
-/** Runs the study once on a fresh pool of `workers`; returns wall-clock seconds and workers used. */
-async function once(workers: number): Promise<{ seconds: number; used: number; jobs: number }> {
-  const t0 = performance.now();
+/**
+ * Runs the study once on a fresh pool of `workers`; returns wall-clock seconds and workers
+ * used. Cold: the clock includes starting the workers (what a command-line user waits for).
+ * Warm: the workers are started and ready first (the page keeps its pool between studies).
+ */
+async function once(workers: number, warm: boolean): Promise<{ seconds: number; used: number; jobs: number }> {
   const pool = createNodePool(workers);
+  if (warm) await pool.warm();
+  const t0 = performance.now();
   try {
     if (values.study === 'resolution') {
       const plan = planResolutionStudy(scenario, { size_wavelengths: 12, budget_deg: 5 });
@@ -47,17 +52,25 @@ async function once(workers: number): Promise<{ seconds: number; used: number; j
 }
 
 console.log(`${values.study} study of ${values.file} on a machine with ${availableParallelism()} hardware threads, best of ${repeats}`);
-const best = { 1: Infinity, 2: Infinity };
+const figures: Record<string, number> = {};
 let used2 = 0;
-for (let k = 0; k < repeats; k++) {
-  for (const workers of [1, 2] as const) {
-    const r = await once(workers);
-    best[workers] = Math.min(best[workers], r.seconds);
-    if (workers === 2) used2 = Math.max(used2, r.used);
-    console.log(`  run ${k + 1}: ${workers} worker${workers === 1 ? ' ' : 's'} ${r.seconds.toFixed(2)} s (${r.jobs} jobs, ${r.used} worker${r.used === 1 ? '' : 's'} used)`);
+for (const warm of [false, true]) {
+  const best = { 1: Infinity, 2: Infinity };
+  for (let k = 0; k < repeats; k++) {
+    for (const workers of [1, 2] as const) {
+      const r = await once(workers, warm);
+      best[workers] = Math.min(best[workers], r.seconds);
+      if (workers === 2) used2 = Math.max(used2, r.used);
+      console.log(`  ${warm ? 'warm' : 'cold'} run ${k + 1}: ${workers} worker${workers === 1 ? ' ' : 's'} ${r.seconds.toFixed(2)} s (${r.jobs} jobs, ${r.used} worker${r.used === 1 ? '' : 's'} used)`);
+    }
   }
+  const label = warm ? 'warm' : 'cold';
+  figures[`${label}_one_worker_s`] = best[1];
+  figures[`${label}_two_workers_s`] = best[2];
+  figures[`${label}_speedup`] = best[1] / best[2];
+  console.log(`${label} (${warm ? 'workers ready before the clock starts' : 'worker start-up included'}): 1 worker ${best[1].toFixed(2)} s, 2 workers ${best[2].toFixed(2)} s: ${(best[1] / best[2]).toFixed(2)}×`);
 }
-const speedup = best[1] / best[2];
-console.log(`1 worker ${best[1].toFixed(2)} s, 2 workers ${best[2].toFixed(2)} s: ${speedup.toFixed(2)}× (required ${REQUIRED_SPEEDUP}×)`);
-console.log(JSON.stringify({ study: values.study, one_worker_s: best[1], two_workers_s: best[2], speedup, workers_used: used2 }));
+const speedup = figures.cold_speedup;
+console.log(`required: ${REQUIRED_SPEEDUP}× with start-up included; measured ${speedup.toFixed(2)}×`);
+console.log(JSON.stringify({ study: values.study, ...figures, workers_used: used2 }));
 process.exit(speedup >= REQUIRED_SPEEDUP && used2 > 1 ? 0 : 1);

@@ -62,6 +62,8 @@ export class StudyPool {
   private queue: Pending[] = [];
   private nextId = 1;
   private nextWorker = 1;
+  private readyWaiters: (() => void)[] = [];
+  private broken: Error | undefined;
 
   constructor(private readonly factory: WorkerFactory, size: number) {
     this.size = Math.max(1, Math.floor(Number.isFinite(size) ? size : 1));
@@ -85,6 +87,22 @@ export class StudyPool {
     });
   }
 
+  /**
+   * Starts every worker now rather than when jobs arrive, and resolves once all of them
+   * have their engine compiled (rejects if one cannot start). Jobs may be queued meanwhile.
+   */
+  warm(): Promise<void> {
+    while (this.slots.length < this.size) this.start();
+    return new Promise<void>((resolve, reject) => {
+      const check = () => {
+        if (this.slots.length >= this.size && this.slots.every((s) => s.ready)) resolve();
+        else if (this.broken) reject(this.broken);
+        else this.readyWaiters.push(check);
+      };
+      check();
+    });
+  }
+
   /** Stops everything: terminates the workers and rejects every waiting or running job. */
   cancel(reason = 'study cancelled'): void {
     const stopped = [...this.slots.flatMap((s) => (s.running ? [s.running] : [])), ...this.queue];
@@ -92,6 +110,14 @@ export class StudyPool {
     this.slots = [];
     this.queue = [];
     for (const p of stopped) p.reject(new StudyCancelled(reason));
+    this.wakeWaiters(new StudyCancelled(reason));
+  }
+
+  /** Lets warm() callers look again; with `error`, those still waiting fail with it. */
+  private wakeWaiters(error?: Error): void {
+    this.broken = error;
+    for (const waiter of this.readyWaiters.splice(0)) waiter();
+    this.broken = undefined;
   }
 
   /** Cancels whatever is left and lets the process exit. */
@@ -132,6 +158,7 @@ export class StudyPool {
     switch (m.type) {
       case 'ready':
         slot.ready = true;
+        this.wakeWaiters();
         break;
       case 'fatal':
         this.onFailure(slot, new Error(m.message));
@@ -158,7 +185,10 @@ export class StudyPool {
     this.slots = this.slots.filter((s) => s !== slot);
     slot.port.terminate();
     slot.running?.reject(error);
-    if (!slot.ready) for (const p of this.queue.splice(0)) p.reject(error);
+    if (!slot.ready) {
+      for (const p of this.queue.splice(0)) p.reject(error);
+      this.wakeWaiters(error);
+    }
     this.pump();
   }
 }

@@ -17,6 +17,7 @@ describe('study pool on worker threads', () => {
     // worker results must not depend on the thread that ran them: common practice, no source
     const pool = createNodePool(2);
     try {
+      await pool.warm(); // else, on a busy machine, the first worker to start may take every job
       const jobs = [0, 1, 2, 3].map((k): StudyJob => ({ kind: 'probe-series', scenario: { ...small(400), source: { ...small().source, amplitude: k + 1 } } }));
       const outcomes = await Promise.all(jobs.map((job) => pool.run(job)));
       expect(new Set(outcomes.map((o) => o.worker)).size).toBe(2);
@@ -130,6 +131,22 @@ describe('study pool bookkeeping', () => {
     expect(results.map((r) => r.status)).toEqual(['rejected', 'fulfilled']);
     expect(fake.started()).toBe(2);
     expect(fake.terminated()).toBe(1);
+  });
+
+  it('warm() starts every worker at once and resolves when all are ready; it fails if the engine cannot load', async () => {
+    // common practice, no source
+    const fake = fakeFactory((m, h) => h.message(answer(m.id, 1)));
+    const pool = new StudyPool(fake.factory, 3);
+    await pool.warm();
+    expect(fake.started()).toBe(3);
+    await pool.run(job(1));
+    expect(fake.started()).toBe(3);
+    const dead = new StudyPool(fakeFactory(() => {}, 'fatal').factory, 2);
+    await expect(dead.warm()).rejects.toThrow(/engine not built/);
+    const cancelled = new StudyPool(fakeFactory(() => {}).factory, 2);
+    const waiting = cancelled.warm();
+    cancelled.cancel();
+    await expect(waiting).rejects.toBeInstanceOf(StudyCancelled);
   });
 
   it('starts no more workers than jobs, and at most its size', async () => {
