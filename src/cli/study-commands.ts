@@ -92,10 +92,15 @@ function printAbsorberTable(r: AbsorberStudyResult, outDir: string | undefined):
   out(line(head));
   for (const row of rows) out(line(row));
   out('');
+  if (!r.complete) {
+    out(r.candidates.length === 0
+      ? 'interrupted before any candidate could be scored (the reference run had not finished)'
+      : `interrupted: ${r.candidates.length} of ${r.planned} candidates finished; the recommendation is among those`);
+  }
   if (r.recommended) {
     out(`recommended: ${describeAbsorber(r.recommended)}: ${dB(r.recommended.reflection_dB)} ` +
       `(target ${r.target_dB} dB, margin ${(r.target_dB - r.recommended.reflection_dB).toFixed(1)} dB), ${formatBytes(r.recommended.memory_bytes)}`);
-  } else {
+  } else if (r.candidates.length > 0) {
     out(`no candidate meets the target ${r.target_dB} dB: recommended is null; try more cells or a less strict target`);
   }
   if (r.current) out(`current:     ${describeAbsorber(r.current)}: ${dB(r.current.reflection_dB)}`);
@@ -164,6 +169,7 @@ function printResolutionTable(r: ResolutionStudyResult, outDir: string | undefin
   for (const row of rows) out(line(row));
   out('');
   const rec = r.recommended;
+  if (!r.complete) out(`interrupted: ${r.candidates.length} of ${r.planned} resolutions finished; the recommendation is among those`);
   if (rec) {
     out(`recommended: ${rec.cellsPerWavelength} cells per wavelength (dx = ${formatSI(rec.dx_m, 'm')}): ` +
       `${formatSig(rec.projected_error_deg, 3)}° across ${r.size_wavelengths} wavelengths, budget ${r.budget_deg}°`);
