@@ -71,7 +71,9 @@ try {
     const times = [];
     for (let k = 0; k < repeats; k++) {
       times.push(await pressRunAndWait(page));
-      say(`demo run ${k + 1}: ${times[k].toFixed(0)} ms from Run to drawn comparison`);
+      const st = await appState(page);
+      say(`demo run ${k + 1}: ${times[k].toFixed(0)} ms from Run to drawn comparison ` +
+        `(worker ${(st.run.runSeconds * 1000).toFixed(0)} ms, drawing after results ${Number(st.drawingMs).toFixed(0)} ms)`);
     }
     const state = await appState(page);
     report.demo = {

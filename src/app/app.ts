@@ -156,6 +156,8 @@ export class GgApp extends LitElement {
     try {
       const m = performance.measure('gg-run-to-compare', 'gg-run-pressed', 'gg-compare-drawn');
       this.dataset.compareMs = m.duration.toFixed(1);
+      const drawing = performance.measure('gg-results-to-compare', 'gg-results-arrived', 'gg-compare-drawn');
+      this.dataset.drawingMs = drawing.duration.toFixed(1);
     } catch {
       // no run-pressed mark: results came from elsewhere
     }

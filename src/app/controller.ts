@@ -197,6 +197,8 @@ export class AppController {
         this.store.setFrame(m);
         break;
       case 'done': {
+        performance.clearMarks('gg-results-arrived');
+        performance.mark('gg-results-arrived');
         const scenario = this.runScenario;
         this.store.set({
           run: {

@@ -7,6 +7,8 @@ import { errorMapOf } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { loadEngineModule } from '../engine/wasm.ts';
+import { demoScenario } from '../scenario/defaults.ts';
+import type { Scenario } from '../scenario/types.ts';
 import { frameStats } from './frame-stats.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
@@ -143,8 +145,44 @@ self.onmessage = (event: MessageEvent<ToWorker>) => {
   }
 };
 
-// Compile the engine before saying "ready", so pressing run does not wait for it.
+/**
+ * A small run through every stage (stepping, results, error map) before saying "ready": the
+ * browser then has optimised code for the engine and the comparison when the person's
+ * first run starts, instead of warming up during it.
+ */
+function warmUp(module: WebAssembly.Module): void {
+  const s = demoScenario();
+  const cells = 8;
+  const n = 72;
+  const dx = s.grid.dx;
+  const centre = ((n - 1) / 2) * dx;
+  const scenario: Scenario = {
+    ...s,
+    grid: { ...s.grid, nx: n, ny: n },
+    absorber: { ...s.absorber, cells },
+    source: { ...s.source, x: centre, y: centre },
+    probes: [{ name: 'warm', x: centre + 12 * dx, y: centre }],
+    lines: [{ name: 'warm', x0: centre + 2 * dx, y0: centre, x1: centre + 20 * dx, y1: centre }],
+    frequencies: [s.frequencies[0]],
+    steps: 240,
+  };
+  const sim = new Simulation(module, scenario, { fullGridFrequency: scenario.frequencies[0] });
+  for (let k = 0; k < 12; k++) sim.step(20);
+  frameStats(sim.ezView().slice());
+  collectResults(sim);
+  errorMapOf(sim);
+  sim.dispose();
+}
+
+// Compile and warm the engine before saying "ready", so pressing run does not wait for it.
 loadEngineModule().then(
-  () => self.postMessage('ready'),
+  (module) => {
+    try {
+      warmUp(module);
+    } catch {
+      // a failed warm-up only costs speed; a real run reports its own errors
+    }
+    self.postMessage('ready');
+  },
   (e: unknown) => self.postMessage({ type: 'failed', runId: -1, message: `the engine could not be loaded: ${e instanceof Error ? e.message : String(e)}` }),
 );
