@@ -6,7 +6,7 @@ import { createNodePool } from '../../src/studies/node-pool.ts';
 import { fitLine, unwrapDegrees } from '../../src/studies/phase-fit.ts';
 import type { StudyPool } from '../../src/studies/pool.ts';
 import {
-  measurementScenario, MEASUREMENT, planResolutionStudy, projectEstimate, recommendResolution, resolutionList,
+  applyResolution, measurementScenario, MEASUREMENT, planResolutionStudy, projectEstimate, recommendResolution, resolutionList,
   runResolutionStudy, studyFrequency, type ResolutionStudyResult,
 } from '../../src/studies/resolution-study.ts';
 import { makeScenario } from '../fixtures/scenarios.ts';
@@ -153,6 +153,28 @@ describe('resolution study rules', () => {
     expect(() => planResolutionStudy(user, { size_wavelengths: -1, budget_deg: 5 })).toThrow(/size/);
     expect(() => planResolutionStudy(user, { size_wavelengths: 12, budget_deg: NaN })).toThrow(/budget/);
     expect(() => planResolutionStudy(user, { size_wavelengths: 12, budget_deg: 5, minCells: 40, maxCells: 20 })).toThrow(/min-cells/);
+  });
+
+  it('applying a resolution keeps the interior, the places in it, the Courant number and the simulated time', () => {
+    // the study's own contract (issue text: apply the recommendation); common practice, no source
+    const s = makeScenario({
+      grid: { nx: 121, ny: 81, dx: 1e-3, dy: 2e-3, courant: 0.5 }, steps: 600, frequencies: [1e10],
+      source: { x: 0.05, y: 0.08 }, probes: [{ name: 'p', x: 0.09, y: 0.1 }], lines: [{ name: 'l', x0: 0.06, y0: 0.08, x1: 0.1, y1: 0.08 }],
+    });
+    const t = applyResolution(s, 60, 1e10);
+    const L = s.absorber.cells;
+    expect(waveSpeed(1) / 1e10 / t.grid.dx).toBeCloseTo(60, 9);
+    expect(t.grid.dy / t.grid.dx).toBeCloseTo(2, 12);
+    expect(t.grid.courant).toBe(0.5);
+    expect(t.absorber.cells).toBe(L);
+    const span = (n: number, d: number) => (n - 1 - 2 * L) * d;
+    expect(span(t.grid.nx, t.grid.dx)).toBeGreaterThanOrEqual(span(s.grid.nx, s.grid.dx) - 1e-12);
+    expect(span(t.grid.nx, t.grid.dx) - span(s.grid.nx, s.grid.dx)).toBeLessThan(t.grid.dx);
+    expect(t.source.x - L * t.grid.dx).toBeCloseTo(s.source.x - L * s.grid.dx, 12);
+    expect(t.probes[0].y - L * t.grid.dy).toBeCloseTo(s.probes[0].y - L * s.grid.dy, 12);
+    const duration = (x: typeof s) => x.steps * timeStep(x.grid.courant, x.grid.dx, x.grid.dy, 1);
+    expect(duration(t)).toBeGreaterThanOrEqual(duration(s) - 1e-18);
+    expect(duration(t) - duration(s)).toBeLessThan(timeStep(0.5, t.grid.dx, t.grid.dy, 1));
   });
 
   it('project estimate scales with the square of the size in cells', () => {
