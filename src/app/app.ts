@@ -12,7 +12,7 @@ import { saveText } from './download.ts';
 import './error-map.ts';
 import './field-view.ts';
 import './line-chart.ts';
-import { initialScenario, savedTheme, savedUnits, writeLink } from './persist.ts';
+import { initialScenario, linkParameter, savedTheme, savedUnits, writeLink } from './persist.ts';
 import './run-controls.ts';
 import type { RunCommand } from './run-controls.ts';
 import './setup-form.ts';
@@ -106,6 +106,7 @@ export class GgApp extends LitElement {
     super.connectedCallback();
     this.addEventListener('gg-edit', this.onEdit as EventListener);
     this.addEventListener('gg-apply-scenario', this.onApply as EventListener);
+    window.addEventListener('hashchange', this.onHashChange);
     const params = new URLSearchParams(window.location.search);
     const autorun = params.get('autorun');
     const untouchedDemo = JSON.stringify(this.state.draft) === JSON.stringify(demoScenario());
@@ -118,7 +119,14 @@ export class GgApp extends LitElement {
     super.disconnectedCallback();
     this.removeEventListener('gg-edit', this.onEdit as EventListener);
     this.removeEventListener('gg-apply-scenario', this.onApply as EventListener);
+    window.removeEventListener('hashchange', this.onHashChange);
   }
+
+  /** A link pasted into the address bar of the open page (the page's own updates fire no event). */
+  private onHashChange = () => {
+    const encoded = linkParameter();
+    if (encoded !== undefined) this.controller.openLink(encoded);
+  };
 
   private onEdit = (e: CustomEvent<{ edits: Edit[] }>) => {
     e.stopPropagation();

@@ -6,6 +6,7 @@ import { runFiles, type RunFiles } from '../io/outputs.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import { parseScenarioText, validateScenario } from '../scenario/parse.ts';
+import { decodeScenario } from '../scenario/url.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { applyEdits, type DisplayUnits, type Draft, type Edit } from './draft.ts';
 import { saveText } from './download.ts';
@@ -87,6 +88,19 @@ export class AppController {
     this.setDraft(result.scenario as unknown as Draft);
     this.store.set({ notice: { kind: 'info', title: `Loaded ${file.name}`, lines: [] } });
     return true;
+  }
+
+  /** Opens the scenario of a link; a damaged one is reported and nothing changes. */
+  openLink(encoded: string): void {
+    const result = decodeScenario(encoded);
+    if (!result.ok) {
+      this.store.set({
+        notice: { kind: 'error', title: 'The scenario in this link could not be used; the set-up is unchanged', lines: result.problems.map((p) => `${p.path}: ${p.message}`) },
+      });
+      return;
+    }
+    this.setDraft(result.scenario as unknown as Draft);
+    this.store.set({ notice: { kind: 'info', title: 'Opened the scenario in the link', lines: [] } });
   }
 
   /** A scenario offered by another panel (e.g. a study's recommendation). */

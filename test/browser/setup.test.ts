@@ -104,6 +104,18 @@ describe('a scenario round trip', () => {
     expect(await other.locator('#f-grid-courant').inputValue()).toBe('0.45'); // common practice, no source
   });
 
+  it('through a link pasted into the open page', async () => {
+    const { page } = await openPage();
+    const wanted = structuredClone(demoScenario());
+    wanted.grid.courant = 0.4;
+    wanted.steps = 1000;
+    const encoded = Buffer.from(JSON.stringify(wanted)).toString('base64url'); // RFC 4648 section 5, as src/scenario/url.ts
+    await page.evaluate((e) => { window.location.hash = `s=${e}`; }, encoded);
+    await expect.poll(async () => (await pageScenario(page) as Scenario).grid.courant).toBe(0.4); // common practice, no source
+    expect(await pageScenario(page)).toEqual(validateScenario(wanted).ok ? wanted : undefined); // common practice, no source
+    expect(await page.locator('#f-steps').inputValue()).toBe('1000'); // common practice, no source
+  });
+
   it('through a saved JSON file', async () => {
     const { page } = await openPage();
     await page.locator('#f-medium-epsR').fill('2.2');
