@@ -73,7 +73,8 @@ try {
       times.push(await pressRunAndWait(page));
       const st = await appState(page);
       say(`demo run ${k + 1}: ${times[k].toFixed(0)} ms from Run to drawn comparison ` +
-        `(worker ${(st.run.runSeconds * 1000).toFixed(0)} ms, drawing after results ${Number(st.drawingMs).toFixed(0)} ms)`);
+        `(worker ${(st.run.runSeconds * 1000).toFixed(0)} ms: ${Object.entries(st.run.timings).map(([k, v]) => `${k} ${v.toFixed(0)}`).join(', ')}; ` +
+        `drawing after results ${Number(st.drawingMs).toFixed(0)} ms)`);
     }
     const state = await appState(page);
     report.demo = {

@@ -217,7 +217,7 @@ export class AppController {
         this.store.set({
           run: {
             ...run, phase: m.stopped ? 'stopped' : 'done', stepsDone: m.results.steps,
-            stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds,
+            stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds, timings: m.timings,
             message: m.stopped ? `stopped at step ${m.results.steps} of ${m.results.stepsPlanned}; the comparison covers the steps taken` : undefined,
           },
           results: m.results,

@@ -9,15 +9,15 @@ import { freshName } from './draft.ts';
 import {
   drawAbsorberOutline, drawMarkers, GridGeometry, markersOf, paintGrid, sameMarker, type MarkerRef,
 } from './grid-drawing.ts';
-import type { FieldFrame } from './protocol.ts';
+import type { ShownFrame } from './store.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
 /** Where Ez frames come from (the store). */
 export interface FrameSource {
-  readonly frame: FieldFrame | undefined;
+  readonly frame: ShownFrame | undefined;
   /** Every frame of the current or last run, oldest first. */
-  readonly film: readonly FieldFrame[];
-  onFrame(listen: (f: FieldFrame | undefined) => void): () => void;
+  readonly film: readonly ShownFrame[];
+  onFrame(listen: (f: ShownFrame | undefined) => void): () => void;
 }
 
 /** Dynamic range of the dB scale. */
@@ -252,7 +252,7 @@ export class GgFieldView extends LitElement {
   }
 
   /** The frame shown, if it belongs to a grid of the shown size. */
-  private usableFrame(): FieldFrame | undefined {
+  private usableFrame(): ShownFrame | undefined {
     const film = this.frames?.film ?? [];
     const f = this.viewIndex !== undefined && !this.running ? film[this.viewIndex] : this.frames?.frame;
     const s = this.scenario;

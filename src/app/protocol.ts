@@ -7,7 +7,6 @@
 import type { ErrorMap } from '../compare/error-map.ts';
 import type { RunResults } from '../compare/results.ts';
 import type { Scenario } from '../scenario/types.ts';
-import type { FrameStats } from './frame-stats.ts';
 
 export type ToWorker =
   | { type: 'run'; runId: number; scenario: Scenario; fullGridFrequency?: number }
@@ -18,7 +17,7 @@ export type ToWorker =
   | { type: 'crash' };
 
 /** A copy of Ez for the field view, possibly every `stride`-th node to keep frames small. */
-export interface FieldFrame extends FrameStats {
+export interface FieldFrame {
   runId: number;
   step: number;
   /** Size of `data`: ceil(nx/stride) × ceil(ny/stride). */
@@ -39,5 +38,7 @@ export type FromWorker =
     runSeconds: number;
     /** Time steps per second while stepping (pauses excluded). */
     stepsPerSecond: number;
+    /** Where the worker's time went, ms: set-up, stepping (with frames), results, error map. */
+    timings: { setup: number; stepping: number; results: number; errorMap: number };
   }
   | { type: 'failed'; runId: number; message: string };

@@ -9,7 +9,6 @@ import { Simulation } from '../engine/simulation.ts';
 import { loadEngineModule } from '../engine/wasm.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import type { Scenario } from '../scenario/types.ts';
-import { frameStats } from './frame-stats.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -58,7 +57,7 @@ function frameOf(sim: Simulation, runId: number): FromWorker & { type: 'frame' }
       for (let c = 0; c < width; c++) data[r * width + c] = ez[row + c * stride];
     }
   }
-  return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data, ...frameStats(data) };
+  return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data };
 }
 
 async function run(message: ToWorker & { type: 'run' }): Promise<void> {
@@ -69,6 +68,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   let sim: Simulation | undefined;
   try {
     sim = await Simulation.create(scenario, { fullGridFrequency: message.fullGridFrequency });
+    const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
     const cells = sim.layout.nx * sim.layout.ny;
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
@@ -104,8 +104,11 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
       const frame = frameOf(sim, runId);
       post(frame, [frame.data.buffer]);
     }
+    const tStepped = performance.now();
     const results = collectResults(sim);
+    const tResults = performance.now();
     const errorMap = errorMapOf(sim);
+    const tMap = performance.now();
     const transfer: Transferable[] = [];
     for (const p of results.probes) transfer.push(p.fdtd.buffer, p.exact.buffer);
     if (errorMap) transfer.push(errorMap.db.buffer);
@@ -113,6 +116,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
       type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMap,
       runSeconds: (performance.now() - t0) / 1000,
       stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
+      timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults },
     }, transfer);
   } catch (e) {
     post({ type: 'failed', runId, message: e instanceof Error ? e.message : String(e) });
@@ -168,7 +172,7 @@ function warmUp(module: WebAssembly.Module): void {
   };
   const sim = new Simulation(module, scenario, { fullGridFrequency: scenario.frequencies[0] });
   for (let k = 0; k < 12; k++) sim.step(20);
-  frameStats(sim.ezView().slice());
+  frameOf(sim, 0);
   collectResults(sim);
   errorMapOf(sim);
   sim.dispose();

@@ -12,6 +12,7 @@ import type { RunResults } from '../compare/results.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import type { ParseResult, Scenario } from '../scenario/types.ts';
 import type { DisplayUnits, Draft } from './draft.ts';
+import { frameStats, type FrameStats } from './frame-stats.ts';
 import type { FieldFrame } from './protocol.ts';
 import type { ThemeName } from './theme.ts';
 
@@ -28,6 +29,8 @@ export interface RunState {
   runSeconds?: number;
   /** Why a run failed, or a note about how it ended. */
   message?: string;
+  /** Where the worker's time went, ms (for the benchmark). */
+  timings?: { setup: number; stepping: number; results: number; errorMap: number };
 }
 
 /** A message shown above the work area until dismissed. */
@@ -53,15 +56,18 @@ export interface AppState {
   notice: Notice | undefined;
 }
 
+/** An Ez frame with the figures the field view needs (worked out on arrival, off the worker's clock). */
+export type ShownFrame = FieldFrame & FrameStats;
+
 /** Bytes of Ez frames kept for replaying a run; beyond it every other frame is dropped. */
 const FILM_BUDGET_BYTES = 96 * 2 ** 20;
 
 export class Store extends EventTarget {
   private current: AppState;
-  private latestFrame: FieldFrame | undefined;
-  private frames: FieldFrame[] = [];
+  private latestFrame: ShownFrame | undefined;
+  private frames: ShownFrame[] = [];
   private filmBytes = 0;
-  private readonly frameListeners = new Set<(f: FieldFrame | undefined) => void>();
+  private readonly frameListeners = new Set<(f: ShownFrame | undefined) => void>();
 
   constructor(initial: AppState) {
     super();
@@ -81,17 +87,18 @@ export class Store extends EventTarget {
     this.set({ run: { ...this.current.run, ...patch } });
   }
 
-  get frame(): FieldFrame | undefined {
+  get frame(): ShownFrame | undefined {
     return this.latestFrame;
   }
 
   /** The frames of the current or last run, oldest first, for replay. */
-  get film(): readonly FieldFrame[] {
+  get film(): readonly ShownFrame[] {
     return this.frames;
   }
 
   /** Shows a new frame and keeps it for replay; undefined clears the view and the film. */
-  setFrame(frame: FieldFrame | undefined): void {
+  setFrame(incoming: FieldFrame | undefined): void {
+    const frame: ShownFrame | undefined = incoming && { ...incoming, ...frameStats(incoming.data) };
     this.latestFrame = frame;
     if (!frame) {
       this.frames = [];
@@ -110,7 +117,7 @@ export class Store extends EventTarget {
   }
 
   /** Calls `listen` on every new Ez frame; returns the unsubscribe function. */
-  onFrame(listen: (f: FieldFrame | undefined) => void): () => void {
+  onFrame(listen: (f: ShownFrame | undefined) => void): () => void {
     this.frameListeners.add(listen);
     return () => this.frameListeners.delete(listen);
   }
