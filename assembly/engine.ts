@@ -194,11 +194,6 @@ export function pointerTo(which: i32): usize {
   return 0;
 }
 
-/** Floats per row of the x-strip ψ block (pointerTo 23): 8 per vector of strip columns. */
-export function psiXRowLength(): i32 {
-  return stripVectors << 3;
-}
-
 export function stepsDone(): i32 {
   return stepCount;
 }

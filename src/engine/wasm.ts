@@ -12,8 +12,6 @@ export interface EngineExports {
   stepsDone(): number;
   step(count: number): void;
   maxAbsEz(): number;
-  /** ψ entries per row of the x-strip ψ arrays. */
-  psiXRowLength(): number;
   /** Reads and rewrites the three fields `passes` times, unchanged (memory-traffic probe). */
   streamFields(passes: number): void;
 }
