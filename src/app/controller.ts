@@ -140,9 +140,21 @@ export class AppController {
   // ---- the run ----
 
   run(): void {
-    const { check, run, mapFrequency } = this.store.state;
-    if (!check.ok || run.phase === 'running' || run.phase === 'paused' || run.phase === 'stopping') return;
-    const scenario = check.scenario;
+    const { check } = this.store.state;
+    if (check.ok) this.startRun(check.scenario);
+  }
+
+  /**
+   * Fault injection for the blow-up test: runs a scenario the set-up form would refuse
+   * (e.g. a Courant number above the stability limit), as a corrupted input might.
+   */
+  runUncheckedForTest(scenario: Scenario): void {
+    this.startRun(scenario);
+  }
+
+  private startRun(scenario: Scenario): void {
+    const { run, mapFrequency } = this.store.state;
+    if (run.phase === 'running' || run.phase === 'paused' || run.phase === 'stopping') return;
     const runId = ++this.runId;
     this.runScenario = scenario;
     performance.clearMarks('gg-run-pressed');
@@ -218,7 +230,9 @@ export class AppController {
           run: {
             ...run, phase: m.stopped ? 'stopped' : 'done', stepsDone: m.results.steps,
             stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds, timings: m.timings,
-            message: m.stopped ? `stopped at step ${m.results.steps} of ${m.results.stepsPlanned}; the comparison covers the steps taken` : undefined,
+            message: m.blowUp
+              ? `run stopped: ${m.blowUp.reason}. What was recorded up to step ${m.blowUp.step} is kept and can be exported`
+              : m.stopped ? `stopped at step ${m.results.steps} of ${m.results.stepsPlanned}; the comparison covers the steps taken` : undefined,
           },
           results: m.results,
           resultsScenario: scenario,

@@ -40,5 +40,7 @@ export type FromWorker =
     stepsPerSecond: number;
     /** Where the worker's time went, ms: set-up, stepping (with frames), results, error map. */
     timings: { setup: number; stepping: number; results: number; errorMap: number };
+    /** Set when the run was stopped because the field blew up: the step and the likely cause. */
+    blowUp?: { step: number; reason: string };
   }
   | { type: 'failed'; runId: number; message: string };

@@ -5,6 +5,7 @@
  */
 import { errorMapOf } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
+import { BlowUpWatch, type BlowUp } from '../engine/blow-up.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { loadEngineModule } from '../engine/wasm.ts';
 import { demoScenario } from '../scenario/defaults.ts';
@@ -76,6 +77,8 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     let stepping = 0; // ms spent stepping
     let lastFrame = -Infinity;
     let lastFrameStep = 0;
+    const watch = new BlowUpWatch(sim);
+    let blowUp: BlowUp | undefined;
     while (sim.stepsLeft > 0 && !stopRequested) {
       if (paused) {
         post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: true });
@@ -91,9 +94,8 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
       if (now - lastFrame >= FRAME_INTERVAL_MS || sim.stepsDone - lastFrameStep >= frameSteps || sim.stepsLeft === 0) {
         lastFrame = now;
         lastFrameStep = sim.stepsDone;
-        if (!Number.isFinite(sim.maxAbsEz())) {
-          throw new Error(`the field became infinite or NaN by step ${sim.stepsDone}; lower grid.courant below the stability limit`);
-        }
+        blowUp = watch.check();
+        if (blowUp) break;
         const frame = frameOf(sim, runId);
         post(frame, [frame.data.buffer]);
         post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: false });
@@ -113,7 +115,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     for (const p of results.probes) transfer.push(p.fdtd.buffer, p.exact.buffer);
     if (errorMap) transfer.push(errorMap.db.buffer);
     post({
-      type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMap,
+      type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMap, blowUp,
       runSeconds: (performance.now() - t0) / 1000,
       stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
       timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults },

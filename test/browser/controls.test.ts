@@ -88,6 +88,25 @@ describe('run controls', () => {
   });
 });
 
+describe('blow-up in the page', () => {
+  it('stops a run that blows up, names the step and cause, and keeps the results so far', async () => {
+    const { page, errors } = await openPage();
+    // Fault injection: a Courant number above 1/√2 (Taflove & Hagness ch. 4) that the form would refuse
+    const s: Scenario = { ...demoScenario(), grid: { ...demoScenario().grid, courant: 0.75 }, steps: 3000 };
+    await page.evaluate((sc) => (document.querySelector('gg-app') as unknown as { controller: { runUncheckedForTest(s: unknown): void } })
+      .controller.runUncheckedForTest(sc), s);
+    expect(await waitForRunEnd(page)).toBe('stopped'); // common practice, no source
+    const message = await page.locator('gg-run-controls .message').textContent();
+    expect(message).toMatch(/run stopped: the field (became|energy)/);
+    expect(message).toMatch(/step \d+/);
+    const kept = await page.evaluate(() =>
+      (document.querySelector('gg-app') as unknown as { store: { state: { results?: { steps: number } } } }).store.state.results?.steps ?? 0);
+    expect(kept).toBeGreaterThan(0);
+    expect(kept).toBeLessThan(3000);
+    expect(errors).toEqual([]);
+  });
+});
+
 describe('keyboard and page set-up', () => {
   it('adds and moves a probe on the field view from the keyboard', async () => {
     const { page } = await openPage();
