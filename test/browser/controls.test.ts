@@ -191,6 +191,28 @@ describe('keyboard and page set-up', () => {
     expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
   });
 
+  it('requests nothing beyond its own files during a full run and export, and the CSP blocks any other origin', async () => {
+    const { page, context } = await h.newPage();
+    const requested: string[] = [];
+    context.on('request', (r) => requested.push(r.url()));
+    await page.goto(h.url);
+    expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
+    await waitForCompareDrawn(page);
+    const origin = new URL(h.url).origin;
+    const foreign = requested.filter((u) => !u.startsWith(origin) && !u.startsWith('data:') && !u.startsWith('blob:'));
+    expect(requested.length).toBeGreaterThan(2);
+    expect(foreign).toEqual([]); // CSP Level 3 (W3C): default-src 'self'
+    // a script that tried to reach another origin is stopped by the policy before any traffic
+    const violation = await page.evaluate(async () => {
+      const seen = new Promise<string>((resolve) => {
+        document.addEventListener('securitypolicyviolation', (e) => resolve(`${e.effectiveDirective} ${e.blockedURI}`), { once: true });
+      });
+      await fetch('http://127.0.0.2:9/leak').catch(() => undefined);
+      return Promise.race([seen, new Promise<string>((resolve) => setTimeout(() => resolve('no violation'), 2000))]);
+    });
+    expect(violation).toMatch(/^connect-src http:\/\/127\.0\.0\.2:9/);
+  });
+
   it('carries a Content-Security-Policy that allows only its own origin', async () => {
     const { page } = await openPage();
     const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
