@@ -299,8 +299,8 @@ function boundaryRow(j: i32, k0: i32): void {
 // H and then E of one node range in a single pass, for rows and columns outside every strip:
 // Hx and Hy of a vector are computed, stored and used for its Ez at once; the Ez neighbour
 // to the right and the Hy neighbour to the left come from the adjacent vector by a shuffle.
-// Four vectors per turn; each of the five streams has its own pointer, so every access is
-// one pointer plus a constant offset.
+// Each of the five streams has its own pointer, so every access is one pointer plus a
+// constant offset.
 @inline function fusedVector(
   d: usize, ezHere: v128, ezNext: v128, hyLeft: v128,
   pEz: usize, pEzUp: usize, pHx: usize, pHxDown: usize, pHy: usize,
@@ -336,10 +336,12 @@ function boundaryRow(j: i32, k0: i32): void {
     let pHy = hy + o;
     let ez0 = v128.load(pEz); // old Ez of the next vector
     let hyLeft = v128.load(pHy - 16); // new Hy of the vector to the left
-    const pEnd16 = pEz + (<usize>((i1 - i) & ~15) << 2);
+    const pEnd32 = pEz + (<usize>((i1 - i) & ~31) << 2);
     const pEnd4 = pEz + (<usize>((i1 - i) & ~3) << 2);
     i += (i1 - i) & ~3;
-    while (pEz < pEnd16) {
+    // Eight vectors per turn: the loop's own work (pointer steps, the bound and stack
+    // checks) is spread over 32 nodes.
+    while (pEz < pEnd32) {
       const ez1 = v128.load(pEz, 16);
       const ez2 = v128.load(pEz, 32);
       const ez3 = v128.load(pEz, 48);
@@ -347,9 +349,17 @@ function boundaryRow(j: i32, k0: i32): void {
       const hy0 = fusedVector(0, ez0, ez1, hyLeft, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
       const hy1 = fusedVector(16, ez1, ez2, hy0, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
       const hy2 = fusedVector(32, ez2, ez3, hy1, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
-      hyLeft = fusedVector(48, ez3, ez4, hy2, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
-      ez0 = ez4;
-      pEz += 64; pEzUp += 64; pHx += 64; pHxDown += 64; pHy += 64;
+      const hy3 = fusedVector(48, ez3, ez4, hy2, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const ez5 = v128.load(pEz, 80);
+      const ez6 = v128.load(pEz, 96);
+      const ez7 = v128.load(pEz, 112);
+      const ez8 = v128.load(pEz, 128);
+      const hy4 = fusedVector(64, ez4, ez5, hy3, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const hy5 = fusedVector(80, ez5, ez6, hy4, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      const hy6 = fusedVector(96, ez6, ez7, hy5, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      hyLeft = fusedVector(112, ez7, ez8, hy6, pEz, pEzUp, pHx, pHxDown, pHy, hxc, hyc, ecx, ecy);
+      ez0 = ez8;
+      pEz += 128; pEzUp += 128; pHx += 128; pHxDown += 128; pHy += 128;
     }
     while (pEz < pEnd4) {
       const ez1 = v128.load(pEz, 16);
