@@ -268,25 +268,65 @@ function boundaryRow(j: i32, k0: i32): void {
     f32Set(hy, k, f32At(hy, k) + chx * (f32At(ez, k + 1) - f32At(ez, k)));
   }
   if (layer == 0) return;
-  if (withHx) {
-    // Row 0 lies in the top y strip.
-    const b = f32At(bHy, j);
-    const a = f32At(aHy, j);
-    const g = f32At(gHy, j);
-    const r = psiYRow(j);
-    for (let c = 0; c < nx; c++) {
-      const k = k0 + c;
-      const q = psiIndex(r, rowVectors, c);
-      const d = f32At(ez, k + nx) - f32At(ez, k);
-      const p = b * f32At(psiY, q) + a * d;
-      f32Set(psiY, q, p);
-      f32Set(hx, k, f32At(hx, k) - chy * (g * d + p));
+  if (withHx) boundaryHxStrip(j, k0); // row 0 lies in the top y strip
+  boundaryHyStrip(j, k0, 0, leftEnd, 0);
+  boundaryHyStrip(j, k0, rightStart, nx, leftEnd);
+}
+
+// CPML term of Hx over row 0 (y strip): ψ ← b·ψ + a·∂, Hx −= chy·(g·∂ + ψ).
+function boundaryHxStrip(j: i32, k0: i32): void {
+  const b = f32At(bHy, j);
+  const a = f32At(aHy, j);
+  const g = f32At(gHy, j);
+  const r = psiYRow(j);
+  let i = 0;
+  if (ASC_FEATURE_SIMD) {
+    const hxc = v128.load(coefficientVectors);
+    const bv = f32x4.splat(b);
+    const av = f32x4.splat(a);
+    const gv = f32x4.splat(g);
+    const row = <usize>nx << 2;
+    let pEz = ez + (<usize>k0 << 2);
+    let pHx = hx + (<usize>k0 << 2);
+    let pPsi = psiY + (<usize>psiIndex(r, rowVectors, 0) << 2);
+    for (; i + 4 <= nx; i += 4) {
+      const d = f32x4.sub(v128.load(pEz + row), v128.load(pEz));
+      const p = f32x4.add(f32x4.mul(bv, v128.load(pPsi)), f32x4.mul(av, d));
+      v128.store(pPsi, p);
+      v128.store(pHx, f32x4.sub(v128.load(pHx), f32x4.mul(hxc, f32x4.add(f32x4.mul(gv, d), p))));
+      pEz += 16; pHx += 16; pPsi += 32;
     }
   }
-  for (let c = 0; c < leftEnd + nx - rightStart; c++) {
-    const i = c < leftEnd ? c : rightStart + c - leftEnd;
+  for (; i < nx; i++) {
     const k = k0 + i;
-    const q = psiIndex(j, stripVectors, c);
+    const q = psiIndex(r, rowVectors, i);
+    const d = f32At(ez, k + nx) - f32At(ez, k);
+    const p = b * f32At(psiY, q) + a * d;
+    f32Set(psiY, q, p);
+    f32Set(hx, k, f32At(hx, k) - chy * (g * d + p));
+  }
+}
+
+// CPML term of Hy over columns [i0, i1) of row 0 or ny−1 (x strip; i0 is strip column c0).
+function boundaryHyStrip(j: i32, k0: i32, i0: i32, i1: i32, c0: i32): void {
+  let i = i0;
+  if (ASC_FEATURE_SIMD) {
+    const hyc = v128.load(coefficientVectors, 16);
+    let pEz = ez + (<usize>(k0 + i0) << 2);
+    let pHy = hy + (<usize>(k0 + i0) << 2);
+    let pCoef = stripCoefficients + <usize>(c0 >> 2) * 96;
+    let pPsi = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
+    for (; i + 4 <= i1; i += 4) {
+      const d = f32x4.sub(v128.load(pEz, 4), v128.load(pEz));
+      const p = f32x4.add(f32x4.mul(v128.load(pCoef), v128.load(pPsi)), f32x4.mul(v128.load(pCoef, 16), d));
+      v128.store(pPsi, p);
+      v128.store(pHy, f32x4.add(v128.load(pHy), f32x4.mul(hyc, f32x4.add(f32x4.mul(v128.load(pCoef, 32), d), p))));
+      pEz += 16; pHy += 16; pCoef += 96; pPsi += 32;
+    }
+  }
+  for (; i < i1; i++) {
+    const k = k0 + i;
+    const q = psiIndex(j, stripVectors, c0 + i - i0);
     const d = f32At(ez, k + 1) - f32At(ez, k);
     const p = f32At(bHx, i) * f32At(psiX, q) + f32At(aHx, i) * d;
     f32Set(psiX, q, p);
