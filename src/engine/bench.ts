@@ -10,8 +10,8 @@ import { instantiateEngine, loadEngineModule } from './wasm.ts';
  * of the same algorithm, timed in alternation so that both see the same machine load; the
  * memory traffic per cell update, set against the machine's memory bandwidth measured
  * in the same run; the cost of probes and running DFTs; and the speed early and late in
- * a run (quiet regions of a grid decay through subnormal floats, which some processors
- * handle slowly and WebAssembly cannot flush to zero).
+ * a run: fields that decay towards zero pass through subnormal floats, which some
+ * processors handle slowly and WebAssembly cannot flush to zero.
  */
 
 /** One grid size. The first six fields are the `bench --json` contract (DESIGN.md). */
@@ -142,6 +142,15 @@ function timeSteps(step: (count: number) => unknown, count: number): number {
   return timeRun(step, count).wall;
 }
 
+/**
+ * CPU seconds for `count` steps where they can be read, else wall-clock seconds: for
+ * comparing two runs by their own work, whatever else the machine is doing meanwhile.
+ */
+function ownSeconds(step: (count: number) => unknown, count: number): number {
+  const t = timeRun(step, count);
+  return Number.isFinite(t.cpu) && t.cpu > 0 ? t.cpu : t.wall;
+}
+
 /** Steps that take about `seconds`, from a timed probe run of `probeSteps`. */
 function stepsFor(seconds: number, step: (count: number) => unknown, probeSteps: number): number {
   const t = Math.max(timeSteps(step, probeSteps), 1e-6);
@@ -239,17 +248,12 @@ function measureProbeOverhead(module: WebAssembly.Module, n: number, runs: numbe
   bare.step(warm); full.step(warm);
   const steps = stepsFor(runSeconds, (c) => bare.step(c), warm);
   const ratios: number[] = [];
-  // CPU time where available: the two runs then differ by their own work only.
-  const cost = (step: (count: number) => unknown, count: number) => {
-    const t = timeRun(step, count);
-    return Number.isFinite(t.cpu) && t.cpu > 0 ? t.cpu : t.wall;
-  };
   for (let r = 0; r < runs; r++) {
     // Alternate which goes first, so a drift in machine speed cancels.
     const first = r % 2 === 0;
-    const a = first ? cost((c) => bare.step(c), steps) : 0;
-    const b = cost((c) => full.step(c), steps);
-    const c = first ? a : cost((k) => bare.step(k), steps);
+    const a = first ? ownSeconds((c) => bare.step(c), steps) : 0;
+    const b = ownSeconds((c) => full.step(c), steps);
+    const c = first ? a : ownSeconds((k) => bare.step(k), steps);
     ratios.push(b / c);
   }
   bare.dispose(); full.dispose();
@@ -272,16 +276,12 @@ function measureSpeedOverRun(module: WebAssembly.Module, n: number, quick: boole
   spare.dispose();
   const windows: SpeedOverRun['windows'] = [];
   const tiny = 1.1754943508222875e-38; // smallest normal float32
-  const cost = (step: (count: number) => unknown, count: number) => {
-    const t = timeRun(step, count);
-    return Number.isFinite(t.cpu) && t.cpu > 0 ? t.cpu : t.wall;
-  };
   const ratios: number[] = [];
   while (pulse.stepsDone < total) {
     const first = windows.length % 2 === 0; // alternate which goes first
-    const tz0 = first ? 0 : cost((c) => zero.step(c), window);
-    const tp = cost((c) => pulse.step(c), window);
-    const tz = first ? cost((c) => zero.step(c), window) : tz0;
+    const tz0 = first ? 0 : ownSeconds((c) => zero.step(c), window);
+    const tp = ownSeconds((c) => pulse.step(c), window);
+    const tz = first ? ownSeconds((c) => zero.step(c), window) : tz0;
     let subnormals = 0;
     for (const v of [pulse.ezView(), pulse.hxView(), pulse.hyView()]) {
       for (let k = 0; k < v.length; k++) {
