@@ -1,28 +1,83 @@
-/** The study pool in Node: one worker_threads worker per hardware thread by default. */
+/**
+ * The study pool in Node: one worker_threads worker per hardware thread by default.
+ *
+ * Starting a worker through the tsx loader costs about 0.4 s of CPU per worker (the loader
+ * thread and the transform of every module), which a short study on two cores feels. So
+ * the worker's module graph is bundled once per process with esbuild (installed with tsx)
+ * into one CommonJS script that each worker evaluates directly, and the engine is compiled
+ * once here and handed to every worker. If esbuild is not available, workers fall back to
+ * registering tsx themselves (node-worker-boot.mjs).
+ */
 import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { StudyPool, type WorkerFactory } from './pool.ts';
+import { loadEngineModule } from '../engine/wasm.ts';
+import { StudyPool, type WorkerFactory, type WorkerHandlers, type WorkerPort } from './pool.ts';
 
 const bootUrl = new URL('./node-worker-boot.mjs', import.meta.url);
 const entryUrl = new URL('./node-worker.ts', import.meta.url);
+const wasmLoaderUrl = new URL('../engine/wasm.ts', import.meta.url);
 
-/** Starts each worker through the tsx bootstrap; an unexpected exit counts as a failure. */
-export const nodeWorkerFactory: WorkerFactory = (handlers) => {
+/** How a worker is started: bundled script text, or the tsx bootstrap file. */
+type WorkerSource = { kind: 'bundle'; code: string } | { kind: 'tsx' };
+
+let source: Promise<WorkerSource> | undefined;
+
+async function bundleWorker(): Promise<WorkerSource> {
+  try {
+    const esbuildName = 'esbuild';
+    const esbuild = (await import(/* @vite-ignore */ esbuildName)) as typeof import('esbuild');
+    const result = await esbuild.build({
+      entryPoints: [fileURLToPath(entryUrl)],
+      bundle: true,
+      platform: 'node',
+      format: 'cjs',
+      target: 'node20',
+      write: false,
+      logLevel: 'silent',
+      // the engine module is handed over compiled, so the loader's URL is never fetched; it
+      // is still computed when the module loads, so give it the loader's own location
+      define: { 'import.meta.url': JSON.stringify(wasmLoaderUrl.href) },
+    });
+    return { kind: 'bundle', code: result.outputFiles[0].text };
+  } catch {
+    return { kind: 'tsx' };
+  }
+}
+
+/**
+ * A factory of worker threads: from the bundle when esbuild is there (default), or always
+ * through tsx with `'tsx'`. An unexpected exit of a worker counts as its failure.
+ */
+export function makeNodeWorkerFactory(mode: 'bundle' | 'tsx' = 'bundle'): WorkerFactory {
+  return (handlers) => startWorker(mode === 'tsx' ? Promise.resolve({ kind: 'tsx' }) : (source ??= bundleWorker()), handlers);
+}
+
+export const nodeWorkerFactory: WorkerFactory = makeNodeWorkerFactory();
+
+function startWorker(from: Promise<WorkerSource>, handlers: WorkerHandlers): WorkerPort {
   let stopping = false;
-  const worker = new Worker(bootUrl, { workerData: { entry: entryUrl.href } });
-  worker.on('message', handlers.message);
-  worker.on('error', handlers.error);
-  worker.on('exit', (code) => {
-    if (!stopping) handlers.error(new Error(`study worker stopped unexpectedly (exit code ${code})`));
-  });
+  let worker: Worker | undefined;
+  Promise.all([from, loadEngineModule()]).then(([from, module]) => {
+    if (stopping) return;
+    worker = from.kind === 'bundle'
+      ? new Worker(from.code, { eval: true, workerData: { module } })
+      : new Worker(bootUrl, { workerData: { entry: entryUrl.href, module } });
+    worker.on('message', handlers.message);
+    worker.on('error', handlers.error);
+    worker.on('exit', (code) => {
+      if (!stopping) handlers.error(new Error(`study worker stopped unexpectedly (exit code ${code})`));
+    });
+  }, (e: unknown) => handlers.error(e instanceof Error ? e : new Error(String(e))));
   return {
-    post: (message) => worker.postMessage(message),
+    // the pool posts jobs only after the worker said "ready", so the worker exists by then
+    post: (message) => worker?.postMessage(message),
     terminate: () => {
       stopping = true;
-      void worker.terminate();
+      void worker?.terminate();
     },
   };
-};
+}
 
 /** Hardware threads of this machine. */
 export function hardwareThreads(): number {

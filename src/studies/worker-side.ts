@@ -12,11 +12,12 @@ export interface WorkerEndpoint {
 const PROGRESS_INTERVAL_MS = 100;
 
 /**
- * Turns the current thread into a study worker: compiles the engine once, says "ready",
- * then runs each job it is sent, one at a time, posting progress and the result. The
- * listener is attached before the engine loads so no early message is lost.
+ * Turns the current thread into a study worker: gets the engine once (compiled by the
+ * parent and handed over, or else loaded here), says "ready", then runs each job it is
+ * sent, one at a time, posting progress and the result. The listener is attached before
+ * the engine loads so no early message is lost.
  */
-export function serveStudyJobs(endpoint: WorkerEndpoint): void {
+export function serveStudyJobs(endpoint: WorkerEndpoint, engine: () => Promise<WebAssembly.Module> = loadEngineModule): void {
   let module: WebAssembly.Module | undefined;
   const waiting: ToWorker[] = [];
 
@@ -42,7 +43,7 @@ export function serveStudyJobs(endpoint: WorkerEndpoint): void {
     else waiting.push(message);
   });
 
-  loadEngineModule().then(
+  engine().then(
     (m) => {
       module = m;
       endpoint.post({ type: 'ready' });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Simulation } from '../../src/engine/simulation.ts';
 import { planAbsorberStudy, runAbsorberStudy, type AbsorberCandidateResult } from '../../src/studies/absorber-study.ts';
 import type { ProbeSeriesResult, StudyJob } from '../../src/studies/jobs.ts';
-import { createNodePool } from '../../src/studies/node-pool.ts';
+import { createNodePool, makeNodeWorkerFactory } from '../../src/studies/node-pool.ts';
 import { StudyCancelled, StudyPool, type WorkerFactory, type WorkerHandlers } from '../../src/studies/pool.ts';
 import type { ToWorker } from '../../src/studies/protocol.ts';
 import { makeScenario } from '../fixtures/scenarios.ts';
@@ -30,6 +30,20 @@ describe('study pool on worker threads', () => {
       expect(outcomes.every((o) => o.result.kind === 'probe-series' && o.result.finite)).toBe(true);
     } finally {
       pool.dispose();
+    }
+  });
+
+  it('workers started through tsx (when esbuild is missing) give the same results as bundled ones', async () => {
+    // common practice, no source
+    const job: StudyJob = { kind: 'probe-series', scenario: small(200) };
+    const viaTsx = new StudyPool(makeNodeWorkerFactory('tsx'), 1);
+    const bundled = new StudyPool(makeNodeWorkerFactory('bundle'), 1);
+    try {
+      const [a, b] = await Promise.all([viaTsx.run(job), bundled.run(job)]);
+      expect(Array.from((a.result as ProbeSeriesResult).series[0])).toEqual(Array.from((b.result as ProbeSeriesResult).series[0]));
+    } finally {
+      viaTsx.dispose();
+      bundled.dispose();
     }
   });
 
