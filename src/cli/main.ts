@@ -23,12 +23,16 @@ Usage:
   gridgauge check FILE [--json]
       Validate the scenario and print derived quantities (dt, cells per wavelength,
       stability margin, memory).
-  gridgauge absorber-study FILE [--target DB] [--out DIR] [--json] [--emit DIR]
+  gridgauge absorber-study FILE [--target DB] [--out DIR] [--json] [--emit DIR] [--workers N]
       Measure CPML reflection for a range of layer settings; recommend the thinnest
       layer that meets the target (default -60 dB).
   gridgauge resolution-study FILE --size WAVELENGTHS --budget DEGREES [--out DIR] [--json] [--emit DIR]
-      Measure phase error per wavelength against cells per wavelength; recommend the
-      coarsest cell that keeps the phase error across SIZE within BUDGET.
+                             [--workers N] [--min-cells N] [--max-cells N]
+      Measure phase error per wavelength against cells per wavelength (default 8..60);
+      recommend the coarsest cell that keeps the phase error across SIZE within BUDGET.
+  --emit DIR writes each candidate as a scenario file plus study.json for a batch
+  scheduler (and runs nothing unless --out or --json is given too); --workers sets the
+  pool size (default: one per hardware thread).
   gridgauge bench [--json]
       Measure engine speed (Mcells/s) against a plain TypeScript kernel.
 

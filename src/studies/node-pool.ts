@@ -3,7 +3,7 @@
  *
  * Starting a worker through the tsx loader costs about 0.4 s of CPU per worker (the loader
  * thread and the transform of every module), which a short study on two cores feels. So
- * the worker's module graph is bundled once per process with esbuild (installed with tsx)
+ * the worker's module graph is bundled once per process with esbuild (a dependency of its own)
  * into one CommonJS script that each worker evaluates directly, and the engine is compiled
  * once here and handed to every worker. If esbuild is not available, workers fall back to
  * registering tsx themselves (node-worker-boot.mjs).
