@@ -3,7 +3,9 @@
  * files. Holds no state of its own beyond the worker; everything shown lives in the store.
  */
 import { runFiles, type RunFiles } from '../io/outputs.ts';
-import { deriveQuantities } from '../scenario/derived.ts';
+import { deriveQuantities, scenarioMemoryBytes } from '../scenario/derived.ts';
+import { MEMORY_CAP_BYTES } from '../engine/memory.ts';
+import { formatBytes } from '../io/units.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import { parseScenarioText, validateScenario } from '../scenario/parse.ts';
 import { decodeScenario } from '../scenario/url.ts';
@@ -160,11 +162,18 @@ export class AppController {
     performance.clearMarks('gg-run-pressed');
     performance.mark('gg-run-pressed');
     this.store.setFrame(undefined);
+    // The error map's full-grid DFT costs 8 bytes a node on top of the run: leave it out,
+    // and say so, when it would take the run past the memory cap.
+    const withMap = scenarioMemoryBytes(scenario, true);
+    const mapFits = withMap <= MEMORY_CAP_BYTES;
     this.store.set({
       run: { phase: 'running', runId, stepsDone: 0, stepsTotal: scenario.steps, stepsPerSecond: 0 },
-      notice: undefined,
+      notice: mapFits ? undefined : {
+        kind: 'info', title: 'Running without the error map',
+        lines: [`With the error map this run would need ${formatBytes(withMap)}, above the ${formatBytes(MEMORY_CAP_BYTES)} cap; probes, lines and exports are unaffected.`],
+      },
     });
-    const fullGridFrequency = scenario.frequencies[Math.min(mapFrequency, scenario.frequencies.length - 1)];
+    const fullGridFrequency = mapFits ? scenario.frequencies[Math.min(mapFrequency, scenario.frequencies.length - 1)] : undefined;
     if (!this.client.send({ type: 'run', runId, scenario, fullGridFrequency })) {
       this.store.setRun({ phase: 'failed', message: 'the run worker could not be started; reload the page' });
     }

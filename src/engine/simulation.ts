@@ -6,6 +6,9 @@ import { engineMemoryBytes } from './memory.ts';
 import { waveformValue } from './waveforms.ts';
 import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
 
+/** The most memory one engine instance can address (wasm32), less a margin for its own data. */
+const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
+
 /** A complex number as [re, im]. */
 export type Complex = [number, number];
 
@@ -64,6 +67,11 @@ export class Simulation {
       dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
     });
 
+    // WebAssembly memory is addressed with 32 bits: beyond 4 GiB the engine's offsets would
+    // wrap, so refuse before allocating (validation's cap is lower; this guards direct use).
+    if (this.memoryBytes > WASM32_LIMIT_BYTES) {
+      throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
+    }
     const engine = instantiateEngine(module);
     const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length,
       options.fullGridFrequency !== undefined ? 1 : 0);

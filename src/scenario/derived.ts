@@ -49,7 +49,7 @@ export interface DerivedQuantities {
 }
 
 /** Engine memory for a scenario, bytes: fields, absorber, probe series and running DFTs. */
-export function scenarioMemoryBytes(s: Scenario): number {
+export function scenarioMemoryBytes(s: Scenario, fullGridDft = false): number {
   const layout = layoutOf(s);
   const lineNodeCount = layout.lines.reduce((sum, l) => sum + l.nodes.length, 0);
   return engineMemoryBytes({
@@ -57,7 +57,7 @@ export function scenarioMemoryBytes(s: Scenario): number {
     probes: s.probes.length,
     dftPoints: s.probes.length + lineNodeCount,
     frequencies: s.frequencies.length,
-    fullGridDft: false,
+    fullGridDft,
   });
 }
 

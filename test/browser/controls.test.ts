@@ -107,6 +107,21 @@ describe('blow-up in the page', () => {
   });
 });
 
+describe('a run too big for the engine', () => {
+  it('fails with a message naming the grid and the bytes, and the page runs again afterwards', async () => {
+    const { page, errors } = await openPage();
+    // Fault injection: 20 000² nodes (≈ 8 GiB) past validation; wasm32 addresses 4 GiB (WebAssembly core spec, memory32)
+    const s: Scenario = { ...demoScenario(), grid: { ...demoScenario().grid, nx: 20_000, ny: 20_000 } };
+    await page.evaluate((sc) => (document.querySelector('gg-app') as unknown as { controller: { runUncheckedForTest(s: unknown): void } })
+      .controller.runUncheckedForTest(sc), s);
+    expect(await waitForRunEnd(page)).toBe('failed'); // common practice, no source
+    expect(await page.locator('gg-run-controls .message').textContent()).toMatch(/grid\.nx: .*GiB/);
+    await command(page, 'run').click();
+    expect(await waitForRunEnd(page)).toBe('done'); // the tab survived and recovers
+    expect(errors).toEqual([]);
+  });
+});
+
 describe('keyboard and page set-up', () => {
   it('adds and moves a probe on the field view from the keyboard', async () => {
     const { page } = await openPage();

@@ -119,6 +119,12 @@ describe('limits and interruption', () => {
     expect(existsSync(join(dir, 'o'))).toBe(false);
   });
 
+  it('a grid beyond what a 32-bit engine can address is refused before allocation, not wrapped', async () => {
+    // wasm32 linear memory is at most 4 GiB (WebAssembly core specification, memory32)
+    const s = makeScenario({ grid: { nx: 20_000, ny: 20_000 } });
+    await expect(Simulation.create(s)).rejects.toThrow(/grid\.nx: a 20000 × 20000 grid needs \d+\.\d GiB, beyond the 4 GiB/);
+  });
+
   it('50 runs created and cancelled give their memory back', () => {
     // measured in a child with --expose-gc so collection can be forced (common practice, no source)
     const r = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', 'test/fixtures/cancel-loop.ts'], { encoding: 'utf8' });
