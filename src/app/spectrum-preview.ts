@@ -1,10 +1,11 @@
-import { css, html, LitElement, type PropertyValues } from 'lit';
+import { css, html, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { waveformBand, waveformSpectrum } from '../engine/waveforms.ts';
 import { formatSI } from '../io/units.ts';
 import type { Waveform } from '../scenario/types.ts';
-import { controlStyles, palettes, type ThemeName } from './theme.ts';
-import { fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { controlStyles, type Palette } from './theme.ts';
+import { SingleChartElement } from './single-chart.ts';
+import { series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
 const HEIGHT = 130;
 const POINTS = 240;
@@ -14,7 +15,7 @@ const POINTS = 240;
  * −40 dB band edge marked: the band the grid has to resolve.
  */
 @customElement('gg-spectrum-preview')
-export class GgSpectrumPreview extends LitElement {
+export class GgSpectrumPreview extends SingleChartElement {
   static styles = [controlStyles, uplotStyles, css`
     :host { display: block; }
     .plot { min-height: ${HEIGHT}px; }
@@ -22,10 +23,7 @@ export class GgSpectrumPreview extends LitElement {
   `];
 
   @property({ attribute: false }) waveform: Waveform | undefined;
-  @property() theme: ThemeName = 'light';
-
-  private chart: uPlot | undefined;
-  private sizer: ResizeObserver | undefined;
+  protected readonly chartHeight = HEIGHT;
   private marks = { f0: NaN, edge: NaN };
 
   render() {
@@ -45,25 +43,15 @@ export class GgSpectrumPreview extends LitElement {
     }
   }
 
-  protected updated(changed: PropertyValues<this>): void {
-    if (changed.has('theme') && this.chart) {
-      this.chart.destroy();
-      this.chart = undefined;
-    }
-    if (!this.waveform) return;
-    if (!this.chart) this.create();
-    else if (changed.has('waveform')) this.chart.setData(this.data());
+  protected hasData(): boolean {
+    return this.waveform !== undefined;
   }
 
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.sizer?.disconnect();
-    this.sizer = undefined;
-    this.chart?.destroy();
-    this.chart = undefined;
+  protected dataChanged(changed: PropertyValues<this>): boolean {
+    return changed.has('waveform');
   }
 
-  private data(): uPlot.AlignedData {
+  protected data(): uPlot.AlignedData {
     const w = this.waveform as Waveform;
     const top = 1.3 * this.marks.edge;
     const f = new Float64Array(POINTS);
@@ -78,12 +66,9 @@ export class GgSpectrumPreview extends LitElement {
     return [f, db] as unknown as uPlot.AlignedData;
   }
 
-  private create(): void {
-    const host = this.renderRoot.querySelector('.plot') as HTMLElement;
-    const palette = () => palettes[this.theme];
-    const width = Math.max(180, Math.floor(host.getBoundingClientRect().width) || 300);
-    this.chart = new uPlot({
-      width, height: HEIGHT,
+  protected options(width: number, palette: () => Palette): uPlot.Options {
+    return {
+      width: Math.max(180, width || 300), height: HEIGHT,
       legend: { show: false },
       cursor: { show: false },
       scales: { x: { time: false }, y: { range: [-80, 3] } },
@@ -108,8 +93,7 @@ export class GgSpectrumPreview extends LitElement {
           ctx.restore();
         }],
       },
-    }, this.data(), host);
-    this.sizer ??= fitWidth(host, () => [this.chart], HEIGHT);
+    };
   }
 }
 

@@ -1,10 +1,11 @@
-import { css, html, LitElement, type PropertyValues } from 'lit';
+import { css, html, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { ProbeResult } from '../compare/results.ts';
 import { formatSI, formatSig } from '../io/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
-import { controlStyles, palettes, type ThemeName } from './theme.ts';
-import { chartsPng, fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { controlStyles, palettes, type Palette } from './theme.ts';
+import { SingleChartElement } from './single-chart.ts';
+import { chartsPng, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
 const HEIGHT = 220;
 
@@ -13,7 +14,7 @@ const HEIGHT = 220;
  * and their difference. The chart is made once per theme; new runs only call setData.
  */
 @customElement('gg-timeseries-chart')
-export class GgTimeseriesChart extends LitElement {
+export class GgTimeseriesChart extends SingleChartElement {
   static styles = [controlStyles, uplotStyles, css`
     :host { display: block; }
     .head { display: flex; gap: 0.5rem; align-items: baseline; flex-wrap: wrap; }
@@ -26,10 +27,7 @@ export class GgTimeseriesChart extends LitElement {
 
   @property({ attribute: false }) probe: ProbeResult | undefined;
   @property({ type: Number }) dt = 0;
-  @property() theme: ThemeName = 'light';
-
-  private chart: uPlot | undefined;
-  private sizer: ResizeObserver | undefined;
+  protected readonly chartHeight = HEIGHT;
 
   render() {
     const p = this.probe;
@@ -45,25 +43,15 @@ export class GgTimeseriesChart extends LitElement {
     `;
   }
 
-  protected updated(changed: PropertyValues<this>): void {
-    if (changed.has('theme') && this.chart) {
-      this.chart.destroy();
-      this.chart = undefined;
-    }
-    if (!this.probe) return;
-    if (!this.chart) this.create();
-    else if (changed.has('probe') || changed.has('dt')) this.chart.setData(this.data());
+  protected hasData(): boolean {
+    return this.probe !== undefined;
   }
 
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.sizer?.disconnect();
-    this.sizer = undefined;
-    this.chart?.destroy();
-    this.chart = undefined;
+  protected dataChanged(changed: PropertyValues<this>): boolean {
+    return changed.has('probe') || changed.has('dt');
   }
 
-  private data(): uPlot.AlignedData {
+  protected data(): uPlot.AlignedData {
     const p = this.probe as ProbeResult;
     const n = p.fdtd.length;
     const t = new Float64Array(n);
@@ -79,12 +67,9 @@ export class GgTimeseriesChart extends LitElement {
     return [t, p.fdtd, exact, diff] as unknown as uPlot.AlignedData;
   }
 
-  private create(): void {
-    const host = this.renderRoot.querySelector('.plot') as HTMLElement;
-    const palette = () => palettes[this.theme];
-    const width = Math.max(200, Math.floor(host.getBoundingClientRect().width) || 480);
-    this.chart = new uPlot({
-      width, height: HEIGHT,
+  protected options(width: number, palette: () => Palette): uPlot.Options {
+    return {
+      width: Math.max(200, width || 480), height: HEIGHT,
       scales: { x: { time: false } },
       axes: [siAxis(palette, 't', 's', 'x'), siAxis(palette, 'Ez', 'V/m', 'y')],
       series: [
@@ -95,8 +80,7 @@ export class GgTimeseriesChart extends LitElement {
       ],
       legend: { show: true },
       cursor: { drag: { x: true, y: false } },
-    }, this.data(), host);
-    this.sizer ??= fitWidth(host, () => [this.chart], HEIGHT);
+    };
   }
 
   private async savePng(): Promise<void> {
