@@ -6,7 +6,7 @@
 import { unsafeCSS } from 'lit';
 import uPlot from 'uplot';
 import uplotCss from 'uplot/dist/uPlot.min.css?inline';
-import { formatSig } from '../io/units.ts';
+import { formatSig, SI_PREFIXES } from '../io/units.ts';
 import { canvasesToPng } from './download.ts';
 import type { Palette } from './theme.ts';
 
@@ -14,14 +14,11 @@ export { uPlot };
 
 export const uplotStyles = unsafeCSS(uplotCss);
 
-const PREFIXES: [number, string][] = [
-  [1e12, 'T'], [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
-];
 
 /** The SI prefix (scale and letter) that shows `magnitude` as 1 to 999. */
 export function prefixFor(magnitude: number): [number, string] {
   if (!(magnitude > 0) || !Number.isFinite(magnitude)) return [1, ''];
-  return PREFIXES.find(([s]) => magnitude >= s * 0.9995) ?? PREFIXES[PREFIXES.length - 1];
+  return SI_PREFIXES.find(([s]) => magnitude >= s * 0.9995) ?? SI_PREFIXES[SI_PREFIXES.length - 1];
 }
 
 function scaleMagnitude(u: uPlot, key: string): number {

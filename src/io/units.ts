@@ -1,4 +1,5 @@
-const PREFIXES: [number, string][] = [
+/** SI prefixes from tera to femto: scale and letter. */
+export const SI_PREFIXES: readonly [number, string][] = [
   [1e12, 'T'], [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'], [1e-15, 'f'],
 ];
 
@@ -14,7 +15,7 @@ export function formatSI(value: number, unit: string, digits = 3): string {
   if (!Number.isFinite(value)) return `${value < 0 ? '−' : ''}∞ ${unit}`.trim();
   if (value === 0) return `0 ${unit}`.trim();
   const a = Math.abs(value);
-  const [scale, prefix] = PREFIXES.find(([s]) => a >= s * 0.9995) ?? PREFIXES[PREFIXES.length - 1];
+  const [scale, prefix] = SI_PREFIXES.find(([s]) => a >= s * 0.9995) ?? SI_PREFIXES[SI_PREFIXES.length - 1];
   return `${formatSig(value / scale, digits)} ${prefix}${unit}`.trim();
 }
 
