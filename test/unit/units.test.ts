@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { formatBytes, formatSI, formatSig } from '../../src/io/units.ts';
+
+describe('SI formatting', () => {
+  it('chooses the prefix that shows 1 to 999', () => {
+    // prefixes and symbols: BIPM SI Brochure (9th ed.), Table 7
+    expect(formatSI(1e10, 'Hz')).toBe('10 GHz');
+    expect(formatSI(0.0015, 'm')).toBe('1.5 mm');
+    expect(formatSI(1.6678204759907604e-12, 's')).toBe('1.67 ps');
+    expect(formatSI(5e-7, 'm')).toBe('500 nm');
+    expect(formatSI(999.96, 'V/m')).toBe('1 kV/m'); // rounds up into the next prefix (common practice, no source)
+    expect(formatSI(-2.5e6, 'Hz')).toBe('−2.5 MHz');
+  });
+
+  it('handles zero, NaN and infinities on purpose', () => {
+    expect(formatSI(0, 'm')).toBe('0 m');
+    expect(formatSI(NaN, 'm')).toBe('—');
+    expect(formatSI(Infinity, 'dB')).toBe('∞ dB');
+    expect(formatSig(NaN)).toBe('—');
+    expect(formatSig(-Infinity)).toBe('−∞');
+  });
+
+  it('keeps significant figures and switches to exponents outside everyday magnitudes', () => {
+    expect(formatSig(0.0104123, 3)).toBe('0.0104');
+    expect(formatSig(-3.36712, 3)).toBe('−3.37');
+    expect(formatSig(1.234e-7, 3)).toBe('1.23e−7');
+  });
+
+  it('prints bytes in binary units', () => {
+    // IEC 80000-13 binary prefixes
+    expect(formatBytes(512)).toBe('512 B');
+    expect(formatBytes(1536)).toBe('1.50 KiB');
+    expect(formatBytes(2 * 1024 ** 3)).toBe('2.00 GiB');
+  });
+});
