@@ -46,14 +46,13 @@ export class BlowUpWatch {
     if (!Number.isFinite(m)) {
       return { step, reason: `the field became ${Number.isNaN(m) ? 'NaN' : 'infinite'} by step ${step}; ${this.likelyCause()}` };
     }
+    // While the source is on, energy may rightly grow: only the NaN test above applies, and
+    // the full-grid energy pass is skipped.
+    if (step <= this.sourceEndStep) return undefined;
     const energy = this.energy();
     this.peakEnergy = Math.max(this.peakEnergy, energy);
-    if (step <= this.sourceEndStep) {
-      this.lastEnergy = energy;
-      return undefined;
-    }
     this.quietMinimum = Math.min(this.quietMinimum, energy);
-    this.risingChecks = energy > this.lastEnergy ? this.risingChecks + 1 : 0;
+    this.risingChecks = this.lastEnergy > 0 && energy > this.lastEnergy ? this.risingChecks + 1 : 0;
     this.lastEnergy = energy;
     // Ignore growth at the float32 noise floor: only a rise well above the post-source
     // minimum and visible against the run's peak counts.
