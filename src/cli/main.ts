@@ -109,6 +109,9 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   return blowUp ? 1 : interrupted ? 130 : 0;
 }
 
+/** Key suffixes of derived quantities and the unit each is shown in. */
+const UNIT_SUFFIXES: [string, string][] = [['_m_per_s', 'm/s'], ['_Hz', 'Hz'], ['_s', 's'], ['_m', 'm']];
+
 async function commandCheck(args: ParsedArgs): Promise<number> {
   const scenario = await loadScenarioFile(args.positional[0]);
   const d = deriveQuantities(scenario);
@@ -119,9 +122,10 @@ async function commandCheck(args: ParsedArgs): Promise<number> {
   const out = (line: string) => process.stdout.write(`${line}\n`);
   out(`scenario is valid`);
   for (const [key, value] of Object.entries(d)) {
-    const shown = typeof value === 'number'
-      ? key.endsWith('_bytes') ? `${formatBytes(value)} (${value} bytes)` : formatSig(value, 4)
-      : JSON.stringify(value);
+    const unit = UNIT_SUFFIXES.find(([suffix]) => key.endsWith(suffix))?.[1];
+    const shown = typeof value !== 'number' ? JSON.stringify(value)
+      : key.endsWith('_bytes') ? `${formatBytes(value)} (${value} bytes)`
+      : unit ? formatSI(value, unit, 4) : formatSig(value, 4);
     out(`  ${key.padEnd(34)} ${shown}`);
   }
   return 0;
