@@ -13,6 +13,7 @@ const tmp = () => mkdtempSync(join(tmpdir(), 'gridgauge-'));
 
 describe('gridgauge run', () => {
   it('writes the four files with the DESIGN.md columns for the demo', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     const out = tmp();
     const r = gridgauge('run', 'examples/demo.json', '--out', out);
     expect(r.code).toBe(0);
@@ -39,6 +40,7 @@ describe('gridgauge run', () => {
   }, 60_000);
 
   it('--json prints summary.json on stdout and nothing else', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     const r = gridgauge('run', 'examples/demo.json', '--json');
     expect(r.code).toBe(0);
     const parsed = JSON.parse(r.stdout);
@@ -47,6 +49,7 @@ describe('gridgauge run', () => {
   }, 60_000);
 
   it('refuses invalid input with exit 2, one message per problem, no stack trace', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     const dir = tmp();
     const bad = join(dir, 'bad.json');
     const demo = JSON.parse(readFileSync('examples/demo.json', 'utf8'));
@@ -61,6 +64,7 @@ describe('gridgauge run', () => {
   });
 
   it('reports a missing file and malformed JSON with exit 2', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     expect(gridgauge('check', 'no/such/file.json').code).toBe(2);
     const dir = tmp();
     const broken = join(dir, 'broken.json');
@@ -72,6 +76,7 @@ describe('gridgauge run', () => {
   });
 
   it('rejects unknown commands and options with exit 2', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     expect(gridgauge('fly').code).toBe(2);
     const r = gridgauge('run', 'examples/demo.json', '--speed=3');
     expect(r.code).toBe(2);
@@ -81,6 +86,7 @@ describe('gridgauge run', () => {
 
 describe('gridgauge check', () => {
   it('prints derived quantities, and JSON with --json', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     const r = gridgauge('check', 'examples/demo.json', '--json');
     expect(r.code).toBe(0);
     const d = JSON.parse(r.stdout).derived;
@@ -91,6 +97,7 @@ describe('gridgauge check', () => {
   });
 
   it('--help lists every verb', () => {
+    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
     const r = gridgauge('--help');
     expect(r.code).toBe(0);
     for (const verb of ['run', 'check', 'absorber-study', 'resolution-study', 'bench']) expect(r.stdout).toContain(`gridgauge ${verb}`);

@@ -50,6 +50,7 @@ describe('blow-up detection', () => {
 
 describe('nothing lost', () => {
   it('an export round-trips exactly: every CSV number reads back to the same double', async () => {
+    // ECMAScript Number::toString gives the shortest round-tripping decimal (ECMA-262, 6.1.6.1.20); RFC 4180 for the CSV
     const sim = await Simulation.create(demoScenario());
     sim.run();
     const r = collectResults(sim);
@@ -73,12 +74,14 @@ describe('nothing lost', () => {
   });
 
   it('a scenario round-trips exactly through its JSON text', () => {
+    // RFC 8259 JSON numbers with ECMAScript's shortest round-trip formatting (ECMA-262)
     const s = demoScenario();
     const back = parseScenarioText(JSON.stringify(s, null, 2));
     expect(back.ok && back.scenario).toEqual(s);
   });
 
   it('a file of a newer format version is refused as newer, not guessed at', () => {
+    // contract: ../shared/DESIGN.md, "Scenario file, format 1" (version above 1 is an error)
     const r = parseScenarioText(JSON.stringify({ ...demoScenario(), version: 2 }));
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.problems[0].message).toMatch(/newer/);
@@ -87,6 +90,7 @@ describe('nothing lost', () => {
 
 describe('limits and interruption', () => {
   it('Ctrl-C during a long CLI run still writes what it has and says it is incomplete', async () => {
+    // exit status 128 + SIGINT(2) = 130 for a run ended by Ctrl-C (POSIX shell convention, common practice)
     const dir = mkdtempSync(join(tmpdir(), 'gridgauge-int-'));
     const scenario = { ...demoScenario(), grid: { ...demoScenario().grid, nx: 600, ny: 600 }, steps: 400_000 };
     writeFileSync(join(dir, 'long.json'), JSON.stringify(scenario));
@@ -110,6 +114,7 @@ describe('limits and interruption', () => {
   }, 60_000);
 
   it('a grid above the memory cap is refused before anything is allocated, with the figure', () => {
+    // contract: ../shared/DESIGN.md, "Ranges" (memory estimated first, error names grid.nx and the bytes)
     const dir = mkdtempSync(join(tmpdir(), 'gridgauge-cap-'));
     const s = { ...demoScenario(), grid: { ...demoScenario().grid, nx: 20_000, ny: 20_000 } };
     writeFileSync(join(dir, 'huge.json'), JSON.stringify(s));
