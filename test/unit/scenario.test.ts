@@ -133,6 +133,7 @@ describe('a valid scenario', () => {
 });
 
 describe('refused: grid', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('nx not a whole number', () => {
     expect(at(refused((s) => { s.grid.nx = 300.5; }), 'grid.nx')).toMatch(/300\.5 is not a whole number; use a whole number such as 30[01]/);
   });
@@ -196,6 +197,7 @@ describe('refused: grid', () => {
 });
 
 describe('refused: medium and absorber', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('epsR below 1', () => {
     expect(at(refused((s) => { s.medium.epsR = 0.5; }), 'medium.epsR')).toMatch(/^0\.5 is below 1, which no passive medium has; give the relative permittivity/);
   });
@@ -229,6 +231,7 @@ describe('refused: medium and absorber', () => {
 });
 
 describe('refused: source and waveform', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('amplitude zero', () => {
     expect(at(refused((s) => { s.source.amplitude = 0; }), 'source.amplitude')).toBe('is 0, which drives no field at all; use a non-zero current in amperes, e.g. 1');
   });
@@ -289,6 +292,7 @@ describe('refused: source and waveform', () => {
 });
 
 describe('refused: probes and lines', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('probe outside the interior', () => {
     expect(at(refused((s) => { s.probes[2].y = 0.295; }), 'probes[2].y')).toMatch(/^0\.295 m lies in the absorber layer \(nearest node j = 295\); keep y between 0\.01 m and 0\.289 m/);
   });
@@ -329,6 +333,7 @@ describe('refused: probes and lines', () => {
 });
 
 describe('refused: frequencies and steps', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('a negative frequency', () => {
     expect(at(refused((s) => { s.frequencies[1] = -1; }), 'frequencies[1]')).toMatch(/^-1 is not above 0; give a frequency in Hz/);
   });
@@ -355,6 +360,7 @@ describe('refused: frequencies and steps', () => {
 });
 
 describe('refused: memory', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('a grid above the cap names grid.nx and grid.ny, the bytes and the cap', () => {
     const problems = refused((s) => { s.grid.nx = 30000; s.grid.ny = 30000; });
     const bytes = engineMemoryBytes({
@@ -376,6 +382,7 @@ describe('refused: memory', () => {
 });
 
 describe('refused: file level', () => {
+  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
   it('version 2 is a newer format, and nothing else is judged', () => {
     const problems = refused((s) => { s.version = 2; s.grid.courant = 5; s.extra = true; });
     expect(problems).toEqual([{
@@ -450,6 +457,7 @@ describe('refused: file level', () => {
 });
 
 describe('malformed JSON', () => {
+  // RFC 8259 grammar; line and column are counted from 1 (common practice, no source)
   const cases: [string, string, string][] = [
     ['trailing comma', '{\n  "steps": 10,\n}', 'malformed JSON at line 3, column 1: a comma before "}" is not allowed in JSON; remove the last comma'],
     ['missing comma', '{\n  "grid": {\n    "nx": 300\n    "ny": 300\n  }\n}', 'malformed JSON at line 4, column 5: expected "," or "}" but found "\\""; is a comma missing?'],
