@@ -1,5 +1,3 @@
-import { mkdir, writeFile } from 'node:fs/promises';
-import { join } from 'node:path';
 import { collectResults, type RunResults } from '../compare/results.ts';
 import { BlowUpWatch, type BlowUp } from '../engine/blow-up.ts';
 import { Simulation } from '../engine/simulation.ts';
@@ -9,6 +7,7 @@ import { formatBytes, formatSI, formatSig } from '../io/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
+import { out, writeFiles } from './output.ts';
 import { ProgressBar } from './progress.ts';
 
 const HELP = `gridgauge — check FDTD cell size, time step and CPML absorbers against the exact
@@ -42,11 +41,6 @@ Results check numerical method only; they are not evidence for RF-exposure or EM
 
 /** Wall-clock seconds since `t0` (performance.now()). */
 const secondsSince = (t0: number) => (performance.now() - t0) / 1000;
-
-async function writeFiles(dir: string, files: Record<string, string>): Promise<void> {
-  await mkdir(dir, { recursive: true });
-  for (const [name, text] of Object.entries(files)) await writeFile(join(dir, name), text);
-}
 
 function printProbeTable(r: RunResults, out: (line: string) => void): void {
   if (r.probes.length === 0) out('no probes in this scenario: add "probes" to compare FDTD with the exact field');
@@ -100,7 +94,6 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   if (json) {
     process.stdout.write(files['summary.json']);
   } else {
-    const out = (line: string) => process.stdout.write(`${line}\n`);
     out(`${sim.layout.nx} × ${sim.layout.ny} grid, ${results.steps} steps of ${formatSI(results.dt_s, 's')} in ${runSeconds.toFixed(2)} s`);
     printProbeTable(results, out);
     if (outDir) out(`wrote timeseries.csv, spectra.csv, lines.csv, summary.json to ${outDir}`);
@@ -119,7 +112,6 @@ async function commandCheck(args: ParsedArgs): Promise<number> {
     process.stdout.write(jsonForOutput({ ok: true, derived: d }));
     return 0;
   }
-  const out = (line: string) => process.stdout.write(`${line}\n`);
   out(`scenario is valid`);
   for (const [key, value] of Object.entries(d)) {
     const unit = UNIT_SUFFIXES.find(([suffix]) => key.endsWith(suffix))?.[1];

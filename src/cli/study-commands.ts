@@ -5,8 +5,6 @@
  * the study then runs here only if --out or --json asks for results too. Ctrl-C cancels
  * and still reports and writes the candidates that finished (exit 130).
  */
-import { mkdir, writeFile } from 'node:fs/promises';
-import { join } from 'node:path';
 import { jsonForOutput } from '../io/csv.ts';
 import { formatBytes, formatSI, formatSig } from '../io/units.ts';
 import {
@@ -14,21 +12,17 @@ import {
 } from '../studies/absorber-study.ts';
 import { createNodePool, hardwareThreads } from '../studies/node-pool.ts';
 import type { StudyProgress } from '../studies/progress.ts';
+import type { StudyPool } from '../studies/pool.ts';
+import type { Scenario } from '../scenario/types.ts';
 import { planResolutionStudy, runResolutionStudy, type ResolutionStudyResult } from '../studies/resolution-study.ts';
 import {
   absorberEmitFiles, absorberFiles, absorberJsonObject, resolutionEmitFiles, resolutionFiles, resolutionJsonObject,
 } from '../studies/study-files.ts';
 import { numberOption, UsageError, type ParsedArgs } from './args.ts';
 import { loadScenarioFile } from './load.ts';
+import { note, out, writeFiles } from './output.ts';
 import { ProgressBar } from './progress.ts';
 
-const out = (line = '') => process.stdout.write(`${line}\n`);
-const note = (line: string) => process.stderr.write(`${line}\n`);
-
-async function writeFiles(dir: string, files: Record<string, string>): Promise<void> {
-  await mkdir(dir, { recursive: true });
-  for (const [name, text] of Object.entries(files)) await writeFile(join(dir, name), text);
-}
 
 function workerCount(args: ParsedArgs): number {
   const n = numberOption(args, 'workers', hardwareThreads()) as number;
@@ -67,6 +61,63 @@ async function withProgress<R>(label: string, study: (signal: AbortSignal, onPro
   } finally {
     process.off('SIGINT', onSignal);
   }
+}
+
+/** What differs between the two study commands; `runStudyCommand` does the rest. */
+interface StudyCommand<P, R extends { recommended: unknown }> {
+  label: string;
+  makePlan(scenario: Scenario): P;
+  emitFiles(plan: P): Record<string, string>;
+  /** What --emit wrote, after "wrote N files to DIR: ". */
+  emitted(plan: P): string;
+  run(plan: P, pool: StudyPool, options: { signal: AbortSignal; onProgress: (p: StudyProgress) => void }): Promise<R>;
+  files(result: R): Record<string, string>;
+  json(result: R): unknown;
+  /** The stderr note for --json when nothing meets the target. */
+  noneMeets: string;
+  print(result: R, outDir: string | undefined): void;
+}
+
+/**
+ * The shape both study commands share: load and plan, optionally write the candidates as
+ * scenario files (--emit), run on a worker pool with progress and Ctrl-C, write the files
+ * (--out), then print the JSON (--json) or the table. Exit 130 when interrupted.
+ */
+async function runStudyCommand<P, R extends { recommended: unknown }>(args: ParsedArgs, c: StudyCommand<P, R>): Promise<number> {
+  const workers = workerCount(args);
+  const outDir = textOption(args, 'out');
+  const emitDir = textOption(args, 'emit');
+  const json = args.options.has('json');
+  const scenario = await loadScenarioFile(args.positional[0]);
+  const studyPlan = plan(() => c.makePlan(scenario));
+
+  if (emitDir) {
+    const files = c.emitFiles(studyPlan);
+    await writeFiles(emitDir, files);
+    const message = `wrote ${Object.keys(files).length} files to ${emitDir}: ${c.emitted(studyPlan)}`;
+    if (!outDir && !json) {
+      out(`${message}; the study was not run here (add --out or --json to run it too)`);
+      return 0;
+    }
+    note(message);
+  }
+
+  const pool = createNodePool(workers);
+  let run: { result: R; interrupted: boolean };
+  try {
+    run = await withProgress(c.label, (signal, onProgress) => c.run(studyPlan, pool, { signal, onProgress }));
+  } finally {
+    pool.dispose();
+  }
+  const { result, interrupted } = run;
+  if (outDir) await writeFiles(outDir, c.files(result));
+  if (json) {
+    process.stdout.write(jsonForOutput(c.json(result)));
+    if (!result.recommended) note(c.noneMeets);
+  } else {
+    c.print(result, outDir);
+  }
+  return interrupted ? 130 : 0;
 }
 
 const dB = (x: number) => (Number.isFinite(x) ? `${x.toFixed(1)} dB` : x === -Infinity ? '−∞ dB' : '—');
@@ -112,40 +163,17 @@ function printAbsorberTable(r: AbsorberStudyResult, outDir: string | undefined):
 export async function absorberStudyCommand(args: ParsedArgs): Promise<number> {
   const target = numberOption(args, 'target', -60) as number;
   if (!(target < 0)) throw new UsageError(`--target: ${target} dB is not a negative number of dB; give e.g. --target -60`);
-  const workers = workerCount(args);
-  const outDir = textOption(args, 'out');
-  const emitDir = textOption(args, 'emit');
-  const json = args.options.has('json');
-  const scenario = await loadScenarioFile(args.positional[0]);
-  const studyPlan = plan(() => planAbsorberStudy(scenario, { target_dB: target }));
-
-  if (emitDir) {
-    const files = absorberEmitFiles(studyPlan);
-    await writeFiles(emitDir, files);
-    const message = `wrote ${Object.keys(files).length} files to ${emitDir}: reference.json, ${studyPlan.candidates.length} candidate scenarios and study.json`;
-    if (!outDir && !json) {
-      out(`${message}; the study was not run here (add --out or --json to run it too)`);
-      return 0;
-    }
-    note(message);
-  }
-
-  const pool = createNodePool(workers);
-  let run: { result: AbsorberStudyResult; interrupted: boolean };
-  try {
-    run = await withProgress('absorber study', (signal, onProgress) => runAbsorberStudy(studyPlan, pool, { signal, onProgress }));
-  } finally {
-    pool.dispose();
-  }
-  const { result, interrupted } = run;
-  if (outDir) await writeFiles(outDir, absorberFiles(result));
-  if (json) {
-    process.stdout.write(jsonForOutput(absorberJsonObject(result)));
-    if (!result.recommended) note(`no candidate meets the target ${target} dB: recommended is null`);
-  } else {
-    printAbsorberTable(result, outDir);
-  }
-  return interrupted ? 130 : 0;
+  return runStudyCommand(args, {
+    label: 'absorber study',
+    makePlan: (scenario) => planAbsorberStudy(scenario, { target_dB: target }),
+    emitFiles: absorberEmitFiles,
+    emitted: (p) => `reference.json, ${p.candidates.length} candidate scenarios and study.json`,
+    run: runAbsorberStudy,
+    files: absorberFiles,
+    json: absorberJsonObject,
+    noneMeets: `no candidate meets the target ${target} dB: recommended is null`,
+    print: printAbsorberTable,
+  });
 }
 
 function printResolutionTable(r: ResolutionStudyResult, outDir: string | undefined): void {
@@ -192,38 +220,15 @@ export async function resolutionStudyCommand(args: ParsedArgs): Promise<number> 
   if (!(budget > 0)) throw new UsageError(`--budget: ${budget} is not a positive number of degrees; give e.g. --budget 5`);
   const minCells = numberOption(args, 'min-cells');
   const maxCells = numberOption(args, 'max-cells');
-  const workers = workerCount(args);
-  const outDir = textOption(args, 'out');
-  const emitDir = textOption(args, 'emit');
-  const json = args.options.has('json');
-  const scenario = await loadScenarioFile(args.positional[0]);
-  const studyPlan = plan(() => planResolutionStudy(scenario, { size_wavelengths: size, budget_deg: budget, minCells, maxCells }));
-
-  if (emitDir) {
-    const files = resolutionEmitFiles(studyPlan);
-    await writeFiles(emitDir, files);
-    const message = `wrote ${Object.keys(files).length} files to ${emitDir}: ${studyPlan.candidates.length} measurement scenarios and study.json`;
-    if (!outDir && !json) {
-      out(`${message}; the study was not run here (add --out or --json to run it too)`);
-      return 0;
-    }
-    note(message);
-  }
-
-  const pool = createNodePool(workers);
-  let run: { result: ResolutionStudyResult; interrupted: boolean };
-  try {
-    run = await withProgress('resolution study', (signal, onProgress) => runResolutionStudy(studyPlan, pool, { signal, onProgress }));
-  } finally {
-    pool.dispose();
-  }
-  const { result, interrupted } = run;
-  if (outDir) await writeFiles(outDir, resolutionFiles(result));
-  if (json) {
-    process.stdout.write(jsonForOutput(resolutionJsonObject(result)));
-    if (!result.recommended) note(`no resolution meets the budget ${budget}° across ${size} wavelengths: recommended is null`);
-  } else {
-    printResolutionTable(result, outDir);
-  }
-  return interrupted ? 130 : 0;
+  return runStudyCommand(args, {
+    label: 'resolution study',
+    makePlan: (scenario) => planResolutionStudy(scenario, { size_wavelengths: size, budget_deg: budget, minCells, maxCells }),
+    emitFiles: resolutionEmitFiles,
+    emitted: (p) => `${p.candidates.length} measurement scenarios and study.json`,
+    run: runResolutionStudy,
+    files: resolutionFiles,
+    json: resolutionJsonObject,
+    noneMeets: `no resolution meets the budget ${budget}° across ${size} wavelengths: recommended is null`,
+    print: printResolutionTable,
+  });
 }
