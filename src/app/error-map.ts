@@ -5,7 +5,7 @@ import { formatSI, formatSig } from '../io/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { LUT_SIZE, sequentialLut } from './colormap.ts';
 import { canvasesToPng, saveBlob } from './download.ts';
-import { drawAbsorberOutline, drawMarkers, GridGeometry, paintGrid } from './grid-drawing.ts';
+import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
 /** Fixed colour ranges, dB below 0 dB; 0 stands for "fit to the interior's values". */
@@ -35,16 +35,9 @@ function fittedRange(m: ErrorMap, cells: number): [number, number] {
  */
 @customElement('gg-error-map')
 export class GgErrorMap extends LitElement {
-  static styles = [controlStyles, css`
-    :host { display: block; }
-    .tools { display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-bottom: 0.4rem; }
-    .tools label { display: inline-flex; gap: 0.3rem; align-items: center; }
-    .stage { position: relative; width: 100%; }
-    canvas.map { display: block; border-radius: 4px; background: var(--gg-raised); }
-    .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; white-space: nowrap; }
+  static styles = [controlStyles, gridMapStyles, css`
     .legend .muted { white-space: normal; }
-    canvas.bar { height: 10px; width: min(260px, 50%); border-radius: 2px; }
-    .readout, .note { font-size: 0.8rem; margin: 0.25rem 0 0; min-height: 1.2em; }
+    .note { font-size: 0.8rem; margin: 0.25rem 0 0; min-height: 1.2em; }
   `];
 
   @property({ attribute: false }) map: ErrorMap | undefined;
@@ -102,10 +95,7 @@ export class GgErrorMap extends LitElement {
   protected firstUpdated(): void {
     this.sizer = new ResizeObserver(() => this.fitCanvas());
     this.sizer.observe(this.renderRoot.querySelector('.stage') as HTMLElement);
-    const ctx = this.bar.getContext('2d') as CanvasRenderingContext2D;
-    const image = new ImageData(LUT_SIZE, 1);
-    new Uint32Array(image.data.buffer).set(sequentialLut());
-    ctx.putImageData(image, 0, 0);
+    paintColourBar(this.bar, sequentialLut());
   }
 
   disconnectedCallback(): void {
@@ -120,23 +110,7 @@ export class GgErrorMap extends LitElement {
   }
 
   private fitCanvas(): void {
-    const stage = this.renderRoot.querySelector('.stage') as HTMLElement | null;
-    const s = this.scenario;
-    if (!stage || !this.canvas) return;
-    const aspect = s ? (s.grid.ny * s.grid.dy) / (s.grid.nx * s.grid.dx) : 1;
-    let width = stage.clientWidth;
-    const maxHeight = Math.max(200, window.innerHeight * 0.7);
-    if (width * aspect > maxHeight) width = maxHeight / aspect;
-    const dpr = window.devicePixelRatio || 1;
-    this.canvas.style.width = `${Math.round(width)}px`;
-    this.canvas.style.height = `${Math.round(width * aspect)}px`;
-    const w = Math.max(1, Math.round(width * dpr));
-    const h = Math.max(1, Math.round(width * aspect * dpr));
-    if (this.canvas.width !== w || this.canvas.height !== h) {
-      this.canvas.width = w;
-      this.canvas.height = h;
-    }
-    this.requestDraw();
+    if (fitCanvasToGrid(this.renderRoot.querySelector('.stage'), this.canvas, this.scenario)) this.requestDraw();
   }
 
   private requestDraw(): void {

@@ -7,7 +7,7 @@ import { fileSafe, canvasesToPng, saveBlob } from './download.ts';
 import type { Edit } from './draft.ts';
 import { freshName } from './draft.ts';
 import {
-  drawAbsorberOutline, drawMarkers, GridGeometry, markersOf, paintGrid, sameMarker, type MarkerRef,
+  drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, markersOf, paintColourBar, paintGrid, sameMarker, type MarkerRef,
 } from './grid-drawing.ts';
 import type { ShownFrame } from './store.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
@@ -40,17 +40,10 @@ type Drag =
  */
 @customElement('gg-field-view')
 export class GgFieldView extends LitElement {
-  static styles = [controlStyles, css`
-    :host { display: block; }
-    .tools { display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-bottom: 0.4rem; }
-    .tools label { display: inline-flex; gap: 0.3rem; align-items: center; }
-    .stage { position: relative; width: 100%; }
-    canvas.map { display: block; touch-action: none; cursor: crosshair; border-radius: 4px; background: var(--gg-raised); }
+  static styles = [controlStyles, gridMapStyles, css`
+    canvas.map { touch-action: none; cursor: crosshair; }
     canvas.map.grab { cursor: grab; }
-    .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; white-space: nowrap; }
     .legend .scale-label { white-space: normal; }
-    canvas.bar { height: 10px; width: min(260px, 50%); border-radius: 2px; }
-    .readout { font-size: 0.8rem; min-height: 1.2em; margin: 0.25rem 0 0; }
     .keys { font-size: 0.75rem; margin: 0.2rem 0 0; }
     kbd { font-family: var(--gg-mono); font-size: 0.72rem; border: 1px solid var(--gg-border); border-radius: 3px; padding: 0 0.25rem; }
   `];
@@ -208,33 +201,11 @@ export class GgFieldView extends LitElement {
   }
 
   private fitCanvas(): void {
-    const stage = this.renderRoot.querySelector('.stage') as HTMLElement | null;
-    const s = this.scenario;
-    if (!stage || !this.canvas || !s) return;
-    const aspect = (s.grid.ny * s.grid.dy) / (s.grid.nx * s.grid.dx);
-    let width = stage.clientWidth;
-    const maxHeight = Math.max(200, window.innerHeight * 0.7);
-    if (width * aspect > maxHeight) width = maxHeight / aspect;
-    const height = width * aspect;
-    const dpr = window.devicePixelRatio || 1;
-    this.canvas.style.width = `${Math.round(width)}px`;
-    this.canvas.style.height = `${Math.round(height)}px`;
-    const w = Math.max(1, Math.round(width * dpr));
-    const h = Math.max(1, Math.round(height * dpr));
-    if (this.canvas.width !== w || this.canvas.height !== h) {
-      this.canvas.width = w;
-      this.canvas.height = h;
-    }
-    this.requestDraw();
+    if (this.scenario && fitCanvasToGrid(this.renderRoot.querySelector('.stage'), this.canvas, this.scenario)) this.requestDraw();
   }
 
   private paintBar(): void {
-    if (!this.bar) return;
-    const ctx = this.bar.getContext('2d') as CanvasRenderingContext2D;
-    const lut = divergingLut(this.theme);
-    const image = new ImageData(LUT_SIZE, 1);
-    new Uint32Array(image.data.buffer).set(lut);
-    ctx.putImageData(image, 0, 0);
+    if (this.bar) paintColourBar(this.bar, divergingLut(this.theme));
   }
 
   private requestDraw(): void {

@@ -3,9 +3,53 @@
  * mapping between canvas pixels and Ez nodes (j = 0 at the bottom), the absorber outline,
  * and the source, probe and line markers.
  */
+import { css } from 'lit';
 import { snapIndex } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
+import { LUT_SIZE } from './colormap.ts';
 import type { Palette } from './theme.ts';
+
+/** Styles both grid maps share: tool row, canvas stage, legend with its colour bar, readout. */
+export const gridMapStyles = css`
+  :host { display: block; }
+  .tools { display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-bottom: 0.4rem; }
+  .tools label { display: inline-flex; gap: 0.3rem; align-items: center; }
+  .stage { position: relative; width: 100%; }
+  canvas.map { display: block; border-radius: 4px; background: var(--gg-raised); }
+  .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; white-space: nowrap; }
+  canvas.bar { height: 10px; width: min(260px, 50%); border-radius: 2px; }
+  .readout { font-size: 0.8rem; min-height: 1.2em; margin: 0.25rem 0 0; }
+`;
+
+/**
+ * Sizes `canvas` to fill `stage`'s width with the grid's physical aspect (at most 70 % of the
+ * window's height), in device pixels for a sharp image. Returns whether anything was sized.
+ */
+export function fitCanvasToGrid(stage: HTMLElement | null, canvas: HTMLCanvasElement | undefined, s: Scenario | undefined): boolean {
+  if (!stage || !canvas) return false;
+  const aspect = s ? (s.grid.ny * s.grid.dy) / (s.grid.nx * s.grid.dx) : 1;
+  let width = stage.clientWidth;
+  const maxHeight = Math.max(200, window.innerHeight * 0.7);
+  if (width * aspect > maxHeight) width = maxHeight / aspect;
+  const height = width * aspect;
+  const dpr = window.devicePixelRatio || 1;
+  canvas.style.width = `${Math.round(width)}px`;
+  canvas.style.height = `${Math.round(height)}px`;
+  const w = Math.max(1, Math.round(width * dpr));
+  const h = Math.max(1, Math.round(height * dpr));
+  if (canvas.width !== w || canvas.height !== h) {
+    canvas.width = w;
+    canvas.height = h;
+  }
+  return true;
+}
+
+/** Paints a colour look-up table (packed RGBA, LUT_SIZE entries) into a 1-pixel-high bar canvas. */
+export function paintColourBar(bar: HTMLCanvasElement, lut: Uint32Array): void {
+  const image = new ImageData(LUT_SIZE, 1);
+  new Uint32Array(image.data.buffer).set(lut);
+  (bar.getContext('2d') as CanvasRenderingContext2D).putImageData(image, 0, 0);
+}
 
 /** Canvas-pixel geometry of a grid drawn to fill a `width` × `height` canvas. */
 export class GridGeometry {
