@@ -31,3 +31,18 @@ export function relativeErrorDb(measured: [number, number], reference: [number, 
   const im = (b * c - a * d) / den;
   return 20 * Math.log10(Math.hypot(re, im));
 }
+
+/**
+ * max_n |a[n] − b[n]| and max_n |b[n]| over the common length: the two halves of every
+ * "largest error relative to the reference's peak" figure (relErrMax, reflection error).
+ */
+export function maxDifferenceAndPeak(a: ArrayLike<number>, b: ArrayLike<number>): { diff: number; peak: number } {
+  let diff = 0;
+  let peak = 0;
+  const n = Math.min(a.length, b.length);
+  for (let k = 0; k < n; k++) {
+    diff = Math.max(diff, Math.abs(a[k] - b[k]));
+    peak = Math.max(peak, Math.abs(b[k]));
+  }
+  return { diff, peak };
+}

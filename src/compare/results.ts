@@ -4,7 +4,7 @@ import { wrapDegrees } from '../exact/angles.ts';
 import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { exactTimeSeries } from '../exact/transient.ts';
 import { nodeDistance, type Node } from '../scenario/layout.ts';
-import { complexRatioErrors } from './metrics.ts';
+import { complexRatioErrors, maxDifferenceAndPeak } from './metrics.ts';
 
 /** FDTD beside exact at one point and one frequency, both as Ez/I in V/m per A. */
 export interface SpectrumPoint {
@@ -75,17 +75,10 @@ function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Comple
   };
 }
 
-/** Relative time-domain error max_n |a − b| / max_n |b| (NaN when b is all zero or NaN). */
+/** Relative time-domain error max_n |a − b| / max_n |b| (NaN when b is all zero or not finite). */
 export function relativeMaxError(fdtd: ArrayLike<number>, exact: ArrayLike<number>): number {
-  let diff = 0;
-  let peak = 0;
-  const n = Math.min(fdtd.length, exact.length);
-  for (let k = 0; k < n; k++) {
-    const e = exact[k];
-    if (!Number.isFinite(e)) return NaN;
-    diff = Math.max(diff, Math.abs(fdtd[k] - e));
-    peak = Math.max(peak, Math.abs(e));
-  }
+  for (let k = 0; k < exact.length; k++) if (!Number.isFinite(exact[k])) return NaN;
+  const { diff, peak } = maxDifferenceAndPeak(fdtd, exact);
   return peak > 0 ? diff / peak : NaN;
 }
 

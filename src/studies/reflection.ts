@@ -1,3 +1,4 @@
+import { maxDifferenceAndPeak } from '../compare/metrics.ts';
 import type { Scenario } from '../scenario/types.ts';
 
 /**
@@ -36,14 +37,7 @@ export function referenceScenario(s: Scenario, steps = s.steps): Scenario {
  */
 export function reflectionErrorDb(series: ArrayLike<number>[], reference: ArrayLike<number>[]): { perProbe: number[]; worst: number } {
   const perProbe = series.map((e, p) => {
-    const r = reference[p];
-    let diff = 0;
-    let peak = 0;
-    const n = Math.min(e.length, r.length);
-    for (let k = 0; k < n; k++) {
-      diff = Math.max(diff, Math.abs(e[k] - r[k]));
-      peak = Math.max(peak, Math.abs(r[k]));
-    }
+    const { diff, peak } = maxDifferenceAndPeak(e, reference[p]);
     return 20 * Math.log10(diff / peak);
   });
   return { perProbe, worst: Math.max(...perProbe) };
