@@ -1,6 +1,6 @@
 import type { Simulation } from '../engine/simulation.ts';
 import { lineCurrentTransfer } from '../exact/transfer.ts';
-import { relativeErrorDb } from './metrics.ts';
+import { relativeErrorDb, schemeTransfer } from './metrics.ts';
 
 /** |FDTD/exact − 1| in dB at every Ez node, at the frequency of the full-grid running DFT. */
 export interface ErrorMap {
@@ -31,19 +31,16 @@ export function errorMapOf(sim: Simulation): ErrorMap | undefined {
   if (!full || f === undefined) return undefined;
   const { nx, ny, dx, dy, source } = sim.layout;
   const epsR = sim.scenario.medium.epsR;
-  const [cr, ci] = sim.currentDft(f);
-  const den = cr * cr + ci * ci;
+  const current = sim.currentDft(f);
+  const hasCurrent = current[0] * current[0] + current[1] * current[1] > 0;
   const db = new Float32Array(nx * ny);
   for (let j = 0; j < ny; j++) {
     const yy = (j - source.j) * dy;
     for (let i = 0; i < nx; i++) {
       const k = j * nx + i;
       const rho = Math.hypot((i - source.i) * dx, yy);
-      if (!(rho > 0) || !(den > 0)) { db[k] = NaN; continue; }
-      const re = full.re[k];
-      const im = full.im[k];
-      const fdtd: [number, number] = [(re * cr + im * ci) / den, (im * cr - re * ci) / den];
-      db[k] = relativeErrorDb(fdtd, lineCurrentTransfer(f, rho, epsR));
+      if (!(rho > 0) || !hasCurrent) { db[k] = NaN; continue; }
+      db[k] = relativeErrorDb(schemeTransfer([full.re[k], full.im[k]], current), lineCurrentTransfer(f, rho, epsR));
     }
   }
   return { nx, ny, f_Hz: f, db };

@@ -4,7 +4,7 @@ import { wrapDegrees } from '../exact/angles.ts';
 import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { exactTimeSeries } from '../exact/transient.ts';
 import { nodeDistance, type Node } from '../scenario/layout.ts';
-import { complexRatioErrors, maxDifferenceAndPeak } from './metrics.ts';
+import { complexRatioErrors, maxDifferenceAndPeak, schemeTransfer } from './metrics.ts';
 
 /** FDTD beside exact at one point and one frequency, both as Ez/I in V/m per A. */
 export interface SpectrumPoint {
@@ -44,15 +44,6 @@ export interface RunResults {
   lines: LineResult[];
 }
 
-/**
- * The scheme's transfer function at a DFT point: DFT of Ez over the DFT of the injected
- * current with its half-step timing, so no half-step phase bias remains (DESIGN.md, spectra.csv).
- */
-function transferAt(dft: Complex, current: Complex): Complex {
-  const d = current[0] * current[0] + current[1] * current[1];
-  return [(dft[0] * current[0] + dft[1] * current[1]) / d, (dft[1] * current[0] - dft[0] * current[1]) / d];
-}
-
 /** Predicted phase error from the dispersion relation, wrapped; NaN where no real k̃ exists. */
 function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number): number {
   if (!(rho > 0)) return NaN;
@@ -66,7 +57,7 @@ function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number
 }
 
 function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number): SpectrumPoint {
-  const fdtd = transferAt(dft, current);
+  const fdtd = schemeTransfer(dft, current);
   const exact = lineCurrentTransfer(f, rho, sim.scenario.medium.epsR);
   const { magDb, phaseDeg } = complexRatioErrors(fdtd, exact);
   return {

@@ -3,8 +3,8 @@
  * back from it. The same code runs inside a Node worker thread, a page Web Worker, or the
  * calling thread; everything crossing a worker boundary is plain data and typed arrays.
  */
-import { complexRatioErrors } from '../compare/metrics.ts';
-import { Simulation, type Complex } from '../engine/simulation.ts';
+import { complexRatioErrors, schemeTransfer } from '../compare/metrics.ts';
+import { Simulation } from '../engine/simulation.ts';
 import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
@@ -70,11 +70,6 @@ export function resultTransfers(result: StudyJobResult): ArrayBuffer[] {
   return arrays.map((a) => a.buffer as ArrayBuffer);
 }
 
-function transfer(dft: Complex, current: Complex): Complex {
-  const d = current[0] * current[0] + current[1] * current[1];
-  return [(dft[0] * current[0] + dft[1] * current[1]) / d, (dft[1] * current[0] - dft[0] * current[1]) / d];
-}
-
 function runSteps(sim: Simulation, onProgress: (done: number, total: number) => void): void {
   const cells = sim.layout.nx * sim.layout.ny;
   const batch = Math.max(1, Math.min(500, Math.floor(2e7 / cells)));
@@ -124,7 +119,7 @@ function lineSlopes(sim: Simulation): { f_Hz: number; lines: LinePhaseSlope[] } 
     line.nodes.forEach((node, k) => {
       rho[k] = nodeDistance(node, layout.source, layout.dx, layout.dy);
       const exact = lineCurrentTransfer(f, rho[k], scenario.medium.epsR);
-      wrapped[k] = complexRatioErrors(transfer(sim.lineDft(l, k, 0), current), exact).phaseDeg;
+      wrapped[k] = complexRatioErrors(schemeTransfer(sim.lineDft(l, k, 0), current), exact).phaseDeg;
     });
     const phase = unwrapDegrees(wrapped);
     const fit = fitLine(rho, phase);
