@@ -30,10 +30,9 @@ export function spectraCsv(r: RunResults): string {
 /** `lines.csv`: one row per line node per frequency, ordered by line, frequency, then s_m. */
 export function linesCsv(r: RunResults): string {
   const header = ['line', 's_m', 'x_m', 'y_m', 'rho_m', 'f_Hz', 'fdtd_re', 'fdtd_im', 'exact_re', 'exact_im', 'mag_err_dB', 'phase_err_deg'];
-  const rows = r.lines.flatMap((l) => {
-    const sorted = l.points.slice().sort((a, b) => r.frequencies.indexOf(a.f_Hz) - r.frequencies.indexOf(b.f_Hz) || a.s_m - b.s_m);
-    return sorted.map((pt) => [l.name, pt.s_m, pt.x_m, pt.y_m, pt.rho_m, pt.f_Hz, ...spectrumColumns(pt)]);
-  });
+  // collectResults builds each line's points frequency by frequency, nodes in order along the
+  // line; snapped i and j only grow along a segment, so s_m does too: already contract order.
+  const rows = r.lines.flatMap((l) => l.points.map((pt) => [l.name, pt.s_m, pt.x_m, pt.y_m, pt.rho_m, pt.f_Hz, ...spectrumColumns(pt)]));
   return toCsv(header, rows);
 }
 
