@@ -17,7 +17,40 @@ export interface Waveform {
 }
 
 export interface Grid { nx: number; ny: number; dx: number; dy: number; courant: number }
-export interface Medium { epsR: number }
+/**
+ * A pole of a dispersive medium (README "Materials"), with the e^{+jωt} convention:
+ * debye   Δε/(1 + jωτ);  drude −ωp²/(ω² − jωγ);  lorentz Δε·ω0²/(ω0² + 2jωδ − ω²).
+ * Angular frequencies in rad/s, times in s.
+ */
+export type Pole =
+  | { kind: 'debye'; deltaEps: number; tau: number }
+  | { kind: 'drude'; omegaP: number; gamma: number }
+  | { kind: 'lorentz'; deltaEps: number; omega0: number; delta: number };
+export type PoleKind = Pole['kind'];
+
+/**
+ * A homogeneous medium: `epsR` is ε∞ (the permittivity at infinite frequency), `sigma` the
+ * static conductivity in S/m, `poles` at most six dispersion poles. μ = μ0 throughout.
+ * `sigma` and `poles` are left out (undefined) when the file leaves them out, so a
+ * scenario without them writes back exactly as it was read.
+ */
+export interface Medium { epsR: number; sigma?: number; poles?: Pole[] }
+
+/** Field polarization of the 2D grid: TMz (Ez, Hx, Hy) or TEz (Hz, Ex, Ey). */
+export type Polarization = 'TMz' | 'TEz';
+
+/** How objects enter the grid (README "Objects"). */
+export type Fill = 'staircase' | 'average' | 'conformal';
+
+/** What an object is made of: perfect electric conductor, or a medium (epsR defaults to 1). */
+export type Material = 'pec' | Medium;
+
+interface ObjectBase { name?: string; material: Material }
+export interface CircleObject extends ObjectBase { shape: 'circle'; x: number; y: number; radius: number }
+export interface RectangleObject extends ObjectBase { shape: 'rectangle'; x0: number; y0: number; x1: number; y1: number }
+export interface PolygonObject extends ObjectBase { shape: 'polygon'; points: [number, number][] }
+/** An object in the grid, in metres. Later objects overlap earlier ones. */
+export type SceneObject = CircleObject | RectangleObject | PolygonObject;
 export interface Absorber { cells: number; order: number; sigmaScale: number; kappaMax: number; alphaMax: number }
 export interface Source { x: number; y: number; amplitude: number; waveform: Waveform }
 export interface Probe { name: string; x: number; y: number }
@@ -34,6 +67,12 @@ export interface Scenario {
   lines: ProbeLine[];
   frequencies: number[];
   steps: number;
+  /** Default TMz; left out (undefined) when the file leaves it out. */
+  polarization?: Polarization;
+  /** Default none; left out when the file leaves it out. */
+  objects?: SceneObject[];
+  /** Default staircase; left out when the file leaves it out. */
+  fill?: Fill;
 }
 
 /** One problem found in a scenario: the full path of the field and a message with the fix. */
