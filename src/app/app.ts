@@ -1,7 +1,7 @@
 import { css, html, LitElement, nothing, type PropertyValues } from 'lit';
 import { customElement, query } from 'lit/decorators.js';
 import { repeat } from 'lit/directives/repeat.js';
-import { formatSI } from '../io/units.ts';
+import { formatSI } from '../scenario/units.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import { validateScenario } from '../scenario/parse.ts';
 import { deriveQuantities } from '../scenario/derived.ts';

@@ -4,8 +4,8 @@
  */
 import { runFiles, type RunFiles } from '../io/outputs.ts';
 import { deriveQuantities, scenarioMemoryBytes } from '../scenario/derived.ts';
-import { MEMORY_CAP_BYTES } from '../engine/memory.ts';
-import { formatBytes } from '../io/units.ts';
+import { MEMORY_CAP_BYTES } from '../scenario/memory.ts';
+import { formatBytes } from '../scenario/units.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import { parseScenarioText, validateScenario } from '../scenario/parse.ts';
 import { decodeScenario } from '../scenario/url.ts';

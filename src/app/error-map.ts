@@ -1,7 +1,7 @@
 import { css, html, LitElement, type PropertyValues } from 'lit';
 import { customElement, property, query, state } from 'lit/decorators.js';
 import type { ErrorMap } from '../compare/error-map.ts';
-import { formatSI, formatSig } from '../io/units.ts';
+import { formatSI, formatSig } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { LUT_SIZE, sequentialLut } from './colormap.ts';
 import { canvasesToPng, saveBlob } from './download.ts';

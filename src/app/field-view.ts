@@ -1,6 +1,6 @@
 import { css, html, LitElement, type PropertyValues } from 'lit';
 import { customElement, property, query, state } from 'lit/decorators.js';
-import { formatSI } from '../io/units.ts';
+import { formatSI } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { cssColour, divergingIndex, divergingLut, LUT_SIZE } from './colormap.ts';
 import { fileSafe, canvasesToPng, saveBlob } from './download.ts';

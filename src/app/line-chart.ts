@@ -1,7 +1,7 @@
 import { css, html, LitElement, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { LinePoint, LineResult } from '../compare/results.ts';
-import { formatSI } from '../io/units.ts';
+import { formatSI } from '../scenario/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 import { chartsPng, fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';

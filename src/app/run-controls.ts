@@ -1,6 +1,6 @@
 import { css, html, LitElement } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { formatSig } from '../io/units.ts';
+import { formatSig } from '../scenario/units.ts';
 import type { RunState } from './store.ts';
 import { controlStyles } from './theme.ts';
 

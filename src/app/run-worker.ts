@@ -5,7 +5,7 @@
  */
 import { errorMapOf } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
-import { BlowUpWatch, type BlowUp } from '../engine/blow-up.ts';
+import { drive } from '../engine/batch-driver.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { loadEngineModule } from '../engine/wasm.ts';
 import { demoScenario } from '../scenario/defaults.ts';
@@ -71,37 +71,32 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     sim = await Simulation.create(scenario, { fullGridFrequency: message.fullGridFrequency });
     const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
-    const cells = sim.layout.nx * sim.layout.ny;
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
-    let batch = Math.max(1, Math.min(frameSteps, Math.floor(2e6 / cells)));
-    let stepping = 0; // ms spent stepping
     let lastFrame = -Infinity;
     let lastFrameStep = 0;
-    const watch = new BlowUpWatch(sim);
-    let blowUp: BlowUp | undefined;
-    while (sim.stepsLeft > 0 && !stopRequested) {
-      if (paused) {
-        post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: true });
-        await new Promise<void>((resolve) => { wake = resolve; });
-        continue;
-      }
-      const start = performance.now();
-      sim.step(batch);
-      const took = performance.now() - start;
-      stepping += took;
-      if (took > 0.5) batch = Math.max(1, Math.min(frameSteps, Math.round((batch * BATCH_TARGET_MS) / took)));
-      const now = performance.now();
-      if (now - lastFrame >= FRAME_INTERVAL_MS || sim.stepsDone - lastFrameStep >= frameSteps || sim.stepsLeft === 0) {
-        lastFrame = now;
-        lastFrameStep = sim.stepsDone;
-        blowUp = watch.check();
-        if (blowUp) break;
-        const frame = frameOf(sim, runId);
-        post(frame, [frame.data.buffer]);
-        post({ type: 'progress', runId, stepsDone: sim.stepsDone, stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3), paused: false });
-      }
-      await yieldToMessages();
-    }
+    const live = sim;
+    const stepsPerSecond = (steppingMs: number) => (1000 * live.stepsDone) / Math.max(steppingMs, 1e-3);
+    const outcome = await drive(sim, {
+      cellsPerBatch: 2e6, maxBatchSteps: frameSteps, targetBatchMs: BATCH_TARGET_MS,
+      shouldStop: () => stopRequested, watch: true, watchIntervalMs: FRAME_INTERVAL_MS,
+      afterBatch: async ({ steppingMs }) => {
+        const now = performance.now();
+        if (now - lastFrame >= FRAME_INTERVAL_MS || live.stepsDone - lastFrameStep >= frameSteps || live.stepsLeft === 0) {
+          lastFrame = now;
+          lastFrameStep = live.stepsDone;
+          const frame = frameOf(live, runId);
+          post(frame, [frame.data.buffer]);
+          post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: false });
+        }
+        await yieldToMessages();
+        while (paused && !stopRequested) {
+          post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: true });
+          await new Promise<void>((resolve) => { wake = resolve; });
+        }
+      },
+    });
+    const { blowUp } = outcome;
+    const stepping = outcome.steppingMs;
     if (sim.stepsDone !== lastFrameStep) {
       const frame = frameOf(sim, runId);
       post(frame, [frame.data.buffer]);

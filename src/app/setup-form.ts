@@ -1,7 +1,7 @@
 import { css, html, LitElement, nothing, type TemplateResult } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { waveformDefaults } from '../engine/waveforms.ts';
-import { formatBytes, formatSI, formatSig } from '../io/units.ts';
+import { waveformDefaults } from '../scenario/waveforms.ts';
+import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import { renderPath, type PathSegment } from '../scenario/path.ts';
 import { stabilityLimit } from '../scenario/layout.ts';

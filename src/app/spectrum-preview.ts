@@ -1,7 +1,7 @@
 import { css, html, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import { waveformBand, waveformSpectrum } from '../engine/waveforms.ts';
-import { formatSI } from '../io/units.ts';
+import { waveformBand, waveformSpectrum } from '../scenario/waveforms.ts';
+import { formatSI } from '../scenario/units.ts';
 import type { Waveform } from '../scenario/types.ts';
 import { controlStyles, type Palette } from './theme.ts';
 import { SingleChartElement } from './single-chart.ts';

@@ -1,6 +1,6 @@
 import { css, html, LitElement, nothing, type PropertyValues } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { formatBytes, formatSI, formatSig } from '../io/units.ts';
+import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { validateScenario } from '../scenario/parse.ts';
 import type { Problem, Scenario } from '../scenario/types.ts';
 import {

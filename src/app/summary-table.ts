@@ -1,7 +1,7 @@
 import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { RunResults } from '../compare/results.ts';
-import { formatSI, formatSig } from '../io/units.ts';
+import { formatSI, formatSig } from '../scenario/units.ts';
 import { controlStyles } from './theme.ts';
 
 /**

@@ -1,7 +1,7 @@
 import { css, html, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { ProbeResult } from '../compare/results.ts';
-import { formatSI, formatSig } from '../io/units.ts';
+import { formatSI, formatSig } from '../scenario/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
 import { controlStyles, palettes, type Palette } from './theme.ts';
 import { SingleChartElement } from './single-chart.ts';

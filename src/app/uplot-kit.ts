@@ -6,7 +6,7 @@
 import { unsafeCSS } from 'lit';
 import uPlot from 'uplot';
 import uplotCss from 'uplot/dist/uPlot.min.css?inline';
-import { formatSig, SI_PREFIXES } from '../io/units.ts';
+import { formatSig, SI_PREFIXES } from '../scenario/units.ts';
 import { canvasesToPng } from './download.ts';
 import type { Palette } from './theme.ts';
 

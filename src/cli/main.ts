@@ -1,16 +1,19 @@
 import { collectResults, type RunResults } from '../compare/results.ts';
-import { BlowUpWatch, type BlowUp } from '../engine/blow-up.ts';
+import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runFiles } from '../io/outputs.ts';
-import { formatBytes, formatSI, formatSig } from '../io/units.ts';
+import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
 import { ProgressBar } from './progress.ts';
+import { cliOptions, COMMON_STUDY_OPTIONS, studyCommand } from './study-commands.ts';
+import type { AnyStudyDefinition } from '../studies/definition.ts';
+import { STUDIES } from '../studies/registry.ts';
 
-const HELP = `gridgauge — check FDTD cell size, time step and CPML absorbers against the exact
+const HELP = () => `gridgauge — check FDTD cell size, time step and CPML absorbers against the exact
 field of a pulsed line current (2D TMz Yee grid, WebAssembly engine).
 
 Usage:
@@ -22,13 +25,7 @@ Usage:
   gridgauge check FILE [--json]
       Validate the scenario and print derived quantities (dt, cells per wavelength,
       stability margin, memory).
-  gridgauge absorber-study FILE [--target DB] [--out DIR] [--json] [--emit DIR] [--workers N]
-      Measure CPML reflection for a range of layer settings; recommend the thinnest
-      layer that meets the target (default -60 dB).
-  gridgauge resolution-study FILE --size WAVELENGTHS --budget DEGREES [--out DIR] [--json] [--emit DIR]
-                             [--workers N] [--min-cells N] [--max-cells N]
-      Measure phase error per wavelength against cells per wavelength (default 8..60);
-      recommend the coarsest cell that keeps the phase error across SIZE within BUDGET.
+${studyUsage()}
   --emit DIR writes each candidate as a scenario file plus study.json for a batch
   scheduler (and runs nothing unless --out or --json is given too); --workers sets the
   pool size (default: one per hardware thread).
@@ -38,6 +35,29 @@ Usage:
 Options take a value as "--name value" or "--name=value".
 Exit codes: 0 success, 2 invalid input, 1 failure, 130 interrupted (files still written).
 Results check numerical method only; they are not evidence for RF-exposure or EMC compliance.`;
+
+/** Usage lines of every study verb, from its definition. */
+function studyUsage(): string {
+  return STUDIES.map((d) => {
+    const own = cliOptions(d).map((o) => {
+      const text = o.flag ? `--${o.name}` : `--${o.name} ${o.metavar ?? 'N'}`;
+      return o.required ? text : `[${text}]`;
+    });
+    const usage = `  gridgauge ${d.verb} FILE ${[...own, '[--out DIR]', '[--json]', '[--emit DIR]', '[--workers N]'].join(' ')}`;
+    return `${usage}\n${wrap(d.summary, 6)}`;
+  }).join('\n');
+}
+
+/** Text wrapped at 90 columns, each line indented by `indent` spaces. */
+function wrap(text: string, indent: number): string {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    if (line && line.length + 1 + word.length > 90 - indent) { lines.push(line); line = word; } else line = line ? `${line} ${word}` : word;
+  }
+  if (line) lines.push(line);
+  return lines.map((l) => ' '.repeat(indent) + l).join('\n');
+}
 
 /** Wall-clock seconds since `t0` (performance.now()). */
 const secondsSince = (t0: number) => (performance.now() - t0) / 1000;
@@ -66,22 +86,22 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   const t0 = performance.now();
   const sim = await Simulation.create(scenario);
   let interrupted = false;
-  let blowUp: BlowUp | undefined;
   const onSignal = () => { interrupted = true; };
   process.on('SIGINT', onSignal);
   const bar = new ProgressBar('run');
-  const watch = new BlowUpWatch(sim);
+  let outcome: DriveOutcome;
   try {
-    const batch = Math.max(1, Math.min(500, Math.floor(4e7 / (sim.layout.nx * sim.layout.ny))));
-    while (sim.stepsLeft > 0 && !interrupted && !blowUp) {
-      sim.step(batch);
-      blowUp = watch.check();
-      bar.update(sim.stepsDone, scenario.steps, 'steps');
-      await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
-    }
+    outcome = await drive(sim, {
+      cellsPerBatch: 4e7, watch: true, shouldStop: () => interrupted,
+      afterBatch: async (s) => {
+        bar.update(s.stepsDone, s.stepsTotal, 'steps');
+        await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
+      },
+    });
   } finally {
     process.off('SIGINT', onSignal);
   }
+  const blowUp = outcome.blowUp;
   bar.done(interrupted ? `interrupted at step ${sim.stepsDone} of ${scenario.steps}; writing what was computed` : '');
   if (blowUp) process.stderr.write(`gridgauge: run stopped: ${blowUp.reason}; what was recorded up to step ${blowUp.step} is kept\n`);
   const runSeconds = secondsSince(t0);
@@ -131,16 +151,18 @@ async function commandBench(args: ParsedArgs): Promise<number> {
   return 0;
 }
 
-async function commandStudy(verb: 'absorber-study' | 'resolution-study', args: ParsedArgs): Promise<number> {
-  const studies = await import('./study-commands.ts');
-  return verb === 'absorber-study' ? studies.absorberStudyCommand(args) : studies.resolutionStudyCommand(args);
+function studyVerb(d: AnyStudyDefinition) {
+  return {
+    valued: [...cliOptions(d).filter((o) => !o.flag).map((o) => o.name), ...COMMON_STUDY_OPTIONS.valued],
+    flags: [...cliOptions(d).filter((o) => o.flag).map((o) => o.name), ...COMMON_STUDY_OPTIONS.flags],
+    run: (a: ParsedArgs) => studyCommand(d, a),
+  };
 }
 
 const COMMANDS: Record<string, { valued: string[]; flags: string[]; run: (a: ParsedArgs) => Promise<number> }> = {
   run: { valued: ['out'], flags: ['json'], run: commandRun },
   check: { valued: [], flags: ['json'], run: commandCheck },
-  'absorber-study': { valued: ['target', 'out', 'emit', 'workers'], flags: ['json'], run: (a) => commandStudy('absorber-study', a) },
-  'resolution-study': { valued: ['size', 'budget', 'out', 'emit', 'workers', 'min-cells', 'max-cells'], flags: ['json'], run: (a) => commandStudy('resolution-study', a) },
+  ...Object.fromEntries(STUDIES.map((d) => [d.verb, studyVerb(d)])),
   bench: { valued: [], flags: ['json'], run: commandBench },
 };
 
@@ -148,7 +170,7 @@ const COMMANDS: Record<string, { valued: string[]; flags: string[]; run: (a: Par
 export async function main(argv: readonly string[]): Promise<number> {
   const [verb, ...rest] = argv;
   if (!verb || verb === '--help' || verb === '-h' || verb === 'help') {
-    process.stdout.write(`${HELP}\n`);
+    process.stdout.write(`${HELP()}\n`);
     return verb ? 0 : 2;
   }
   if (verb === '--version') {
@@ -159,7 +181,7 @@ export async function main(argv: readonly string[]): Promise<number> {
   try {
     if (!command) throw new UsageError(`unknown command "${verb}"; the commands are ${Object.keys(COMMANDS).join(', ')} (see gridgauge --help)`);
     if (rest.includes('--help') || rest.includes('-h')) {
-      process.stdout.write(`${HELP}\n`);
+      process.stdout.write(`${HELP()}\n`);
       return 0;
     }
     return await command.run(parseArgs(rest, command.valued, command.flags));

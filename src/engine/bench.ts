@@ -1,5 +1,5 @@
 import { BENCH_CPML_CELLS, benchScenario } from './bench-scenario.ts';
-import { stripVectorsPerRow } from './memory.ts';
+import { stripVectorsPerRow } from '../scenario/memory.ts';
 import { PlainKernel } from './plain-kernel.ts';
 import { Simulation } from './simulation.ts';
 import { instantiateEngine, loadEngineModule } from './wasm.ts';

@@ -1,10 +1,22 @@
 import { EPS0, MU0 } from '../scenario/constants.ts';
 import { stabilityLimit } from '../scenario/layout.ts';
-import type { Simulation } from './simulation.ts';
-import { waveformExtent } from './waveforms.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { waveformExtent } from '../scenario/waveforms.ts';
 
 /** Why a run was stopped: the step and the likely cause, in words a user can act on. */
 export interface BlowUp { step: number; reason: string }
+
+/** What the watch reads of a simulation (both engines provide it). */
+export interface WatchedSimulation {
+  readonly scenario: Scenario;
+  readonly dt: number;
+  readonly layout: { nx: number; ny: number; dx: number; dy: number };
+  readonly stepsDone: number;
+  ezView(): Float32Array;
+  hxView(): Float32Array;
+  hyView(): Float32Array;
+  maxAbsEz(): number;
+}
 
 /**
  * Watches a running simulation between batches of steps and says when it has blown up:
@@ -20,7 +32,7 @@ export class BlowUpWatch {
   private readonly sourceEndStep: number;
 
   /** `risingChecksAllowed`: consecutive growing checks tolerated after the source ends. */
-  constructor(private readonly sim: Simulation, private readonly risingChecksAllowed = 8) {
+  constructor(private readonly sim: WatchedSimulation, private readonly risingChecksAllowed = 8) {
     const w = sim.scenario.source.waveform;
     this.sourceEndStep = Math.ceil((w.t0 + waveformExtent(w)) / sim.dt);
   }

@@ -2,7 +2,7 @@ import { EPS0, MU0 } from '../scenario/constants.ts';
 import { layoutOf } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { cpmlAxisTables } from './cpml-profile.ts';
-import { waveformValue } from './waveforms.ts';
+import { waveformValue } from '../scenario/waveforms.ts';
 
 const f = Math.fround; // coefficients as the engine holds them (float32)
 

@@ -2,15 +2,16 @@ import { EPS0, MU0 } from '../scenario/constants.ts';
 import { layoutOf, type Layout } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { cpmlAxisTables } from './cpml-profile.ts';
-import { engineMemoryBytes } from './memory.ts';
-import { waveformValue } from './waveforms.ts';
+import { engineMemoryBytes } from '../scenario/memory.ts';
+import { waveformValue } from '../scenario/waveforms.ts';
 import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
+import { driveSync } from './batch-driver.ts';
+import type { Complex } from '../exact/complex.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
 const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
 
-/** A complex number as [re, im]. */
-export type Complex = [number, number];
+export type { Complex } from '../exact/complex.ts';
 
 export interface SimulationOptions {
   /** Frequency of the optional full-grid running DFT (for the page's error map), Hz. */
@@ -145,10 +146,10 @@ export class Simulation {
 
   /** Runs to the end in batches, calling `onProgress(done, total)` between batches. */
   run(onProgress?: (done: number, total: number) => void, batch = 200): void {
-    while (this.stepsLeft > 0) {
-      this.step(batch);
-      onProgress?.(this.stepsDone, this.scenario.steps);
-    }
+    driveSync(this, {
+      cellsPerBatch: batch * this.layout.nx * this.layout.ny, maxBatchSteps: batch,
+      afterBatch: (s) => onProgress?.(s.stepsDone, s.stepsTotal),
+    });
   }
 
   /** Live view of Ez (row-major, i fastest); valid until dispose. Copy it to keep it. */

@@ -1,6 +1,6 @@
 import { C0, MU0 } from '../scenario/constants.ts';
 import type { Waveform } from '../scenario/types.ts';
-import { waveformDerivative, waveformExtent } from '../engine/waveforms.ts';
+import { waveformDerivative, waveformExtent } from '../scenario/waveforms.ts';
 import { gaussLegendre } from './gauss-legendre.ts';
 
 /*

@@ -5,8 +5,8 @@
  * (the wavelength at the centre frequency of a baseband gaussian) are NaN, which the JSON
  * writer prints as null.
  */
-import { engineMemoryBytes, MEMORY_CAP_BYTES } from '../engine/memory.ts';
-import { waveformBand } from '../engine/waveforms.ts';
+import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
+import { waveformBand } from './waveforms.ts';
 import { layoutOf, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { Scenario } from './types.ts';
 

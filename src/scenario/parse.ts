@@ -3,7 +3,7 @@
  * `Scenario`, or the full list of problems, each with the path of the field and a message
  * that says what to write instead. Neither function throws, whatever it is given.
  */
-import { waveformDefaults } from '../engine/waveforms.ts';
+import { waveformDefaults } from './waveforms.ts';
 import { closestName } from './did-you-mean.ts';
 import { locateJsonError } from './json-error.ts';
 import type { PathSegment } from './path.ts';

@@ -6,7 +6,7 @@
  * run must fit in memory. Each rule runs only when the fields it reads passed the schema
  * (and any earlier rule), so one mistake does not set off a cascade of follow-on messages.
  */
-import { engineMemoryBytes, MEMORY_CAP_BYTES } from '../engine/memory.ts';
+import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
 import { lineNodes, snapIndex, stabilityLimit, timeStep } from './layout.ts';
 import type { PathSegment } from './path.ts';
 import { pathsOverlap } from './path.ts';

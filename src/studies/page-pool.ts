@@ -1,9 +1,9 @@
 /** The study pool in the page: one module Web Worker per hardware thread by default. */
 import { StudyPool, type WorkerFactory } from './pool.ts';
 
-/** Starts each worker from src/app/study-worker.ts (Vite bundles it as a module worker). */
+/** Starts each worker from ./study-worker.ts (Vite bundles it as a module worker). */
 export const pageWorkerFactory: WorkerFactory = (handlers) => {
-  const worker = new Worker(new URL('../app/study-worker.ts', import.meta.url), { type: 'module', name: 'gridgauge study' });
+  const worker = new Worker(new URL('./study-worker.ts', import.meta.url), { type: 'module', name: 'gridgauge study' });
   worker.onmessage = (e: MessageEvent) => handlers.message(e.data);
   worker.onerror = (e: ErrorEvent) => {
     e.preventDefault();

@@ -6,7 +6,7 @@
  * worker, so running jobs stop at once; their promises reject with StudyCancelled, while
  * jobs already finished keep their results. The pool can be used again after a cancel.
  */
-import type { PhaseSlopeJob, PhaseSlopeResult, ProbeSeriesJob, ProbeSeriesResult, StudyJob, StudyJobResult } from './jobs.ts';
+import type { ProbeSeriesJob, ProbeSeriesResult, SpectraJob, SpectraResult, StudyJob, StudyJobResult } from './jobs.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
 /** Rejection reason of jobs stopped by {@link StudyPool.cancel} or {@link StudyPool.dispose}. */
@@ -32,7 +32,7 @@ export interface WorkerPort {
 /** Starts one study worker whose messages go to `handlers`. */
 export type WorkerFactory = (handlers: WorkerHandlers) => WorkerPort;
 
-export type ResultOf<J extends StudyJob> = J extends ProbeSeriesJob ? ProbeSeriesResult : J extends PhaseSlopeJob ? PhaseSlopeResult : StudyJobResult;
+export type ResultOf<J extends StudyJob> = J extends ProbeSeriesJob ? ProbeSeriesResult : J extends SpectraJob ? SpectraResult : StudyJobResult;
 
 export interface JobOutcome<R extends StudyJobResult = StudyJobResult> {
   result: R;

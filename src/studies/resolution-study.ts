@@ -1,264 +1,35 @@
 /**
- * Resolution study: how many cells per wavelength keep the phase the grid loses across the
- * project within a budget. For each resolution a dedicated measurement run places a
- * modulated-Gaussian line current and three probe lines (along x, along y, along the 45°
- * diagonal) from two to five wavelengths out; the phase error arg(FDTD/exact) along each
- * line is fitted against distance by least squares, whose slope is the phase lost per
- * wavelength (the fit removes the near-source offset). The Yee dispersion relation
- * (Taflove & Hagness, Computational Electrodynamics, ch. 4) predicts the same slope.
- * Held fixed from the user's scenario: the Courant number, the ratio dy/dx, the medium and
- * the absorber grading. Cells per wavelength count along x at the highest frequency.
+ * The resolution study as a study definition (definition.ts): plans from resolution-plan.ts,
+ * fits the phase error along each measurement line, recommends the coarsest resolution
+ * whose worst direction stays within the budget across the project, and describes its
+ * table, files and emitted runs.
  */
-import { engineMemoryBytes } from '../engine/memory.ts';
-import { waveformBand } from '../engine/waveforms.ts';
-import { phaseErrorPerWavelengthDeg } from '../exact/dispersion.ts';
-import { timeStep, waveSpeed } from '../scenario/layout.ts';
+import { complexRatioErrors } from '../compare/metrics.ts';
+import { lineCurrentTransfer } from '../exact/transfer.ts';
+import { layoutOf, nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
-import { jobCellUpdates, type PhaseSlopeResult } from './jobs.ts';
-import { StudyCancelled, type StudyPool } from './pool.ts';
-import { ProgressTracker } from './progress.ts';
-import type { StudyCallbacks } from './absorber-study.ts';
+import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
+import { readNumberOption, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { transferAt, type SpectraResult } from './jobs.ts';
+import { fitLine, unwrapDegrees } from './phase-fit.ts';
+import type { StudyPool } from './pool.ts';
+import {
+  applyResolution, LINE_NAMES, planResolutionStudy, projectEstimate, resolutionOptionProblems,
+  type ProjectEstimate, type ResolutionCandidatePlan, type ResolutionStudyOptions, type ResolutionStudyPlan,
+} from './resolution-plan.ts';
+import { runStudy, type StudyCallbacks } from './run-study.ts';
 
-export const DEFAULT_CELLS_PER_WAVELENGTH = [8, 10, 12, 14, 16, 18, 20, 24, 28, 32, 36, 40, 44, 48, 54, 60] as const;
+export * from './resolution-plan.ts';
 
-/** Geometry of a measurement run, in wavelengths of the medium at the study frequency. */
-export const MEASUREMENT = {
-  /** From the inner face of the layers to the source. */
-  sourceOffset: 1,
-  /** Where the probe lines start and end, measured from the source. */
-  lineStart: 2,
-  lineEnd: 5,
-  /** Interior left beyond the far ends of the lines. */
-  farMargin: 1,
-  /** Periods recorded after the pulse has passed the far end of the lines. */
-  tailPeriods: 4,
-  /** Thinnest absorber used for measurement runs, cells. */
-  minimumCells: 10,
-} as const;
-
-/** Line names of a measurement run. */
-export const LINE_NAMES = { x: 'along x', y: 'along y', diagonal: 'diagonal' } as const;
-
-export interface ResolutionStudyOptions {
-  /** Largest distance in the project, in wavelengths at the highest frequency. */
-  size_wavelengths: number;
-  /** Phase error allowed across that distance, degrees. */
-  budget_deg: number;
-  /** Resolutions to measure (default DEFAULT_CELLS_PER_WAVELENGTH within minCells..maxCells). */
-  cellsPerWavelength?: number[];
-  /** Coarsest resolution measured (default 8); added to the list if absent. */
-  minCells?: number;
-  /** Finest resolution measured (default 60); added to the list if absent. */
-  maxCells?: number;
-}
-
-/** Problems with study options, as messages naming the option; empty when all is well. */
-export function resolutionOptionProblems(o: ResolutionStudyOptions): string[] {
-  const problems: string[] = [];
-  if (!(Number.isFinite(o.size_wavelengths) && o.size_wavelengths > 0)) problems.push(`size: ${o.size_wavelengths} is not a positive number of wavelengths, e.g. --size 12`);
-  if (!(Number.isFinite(o.budget_deg) && o.budget_deg > 0)) problems.push(`budget: ${o.budget_deg} is not a positive number of degrees, e.g. --budget 5`);
-  const cpw = (name: string, v: number | undefined) => {
-    if (v !== undefined && !(Number.isFinite(v) && v >= 4 && v <= 400)) problems.push(`${name}: ${v} is not a number of cells per wavelength from 4 to 400`);
-  };
-  cpw('min-cells', o.minCells);
-  cpw('max-cells', o.maxCells);
-  for (const v of o.cellsPerWavelength ?? []) cpw('cellsPerWavelength', v);
-  if (o.cellsPerWavelength && o.cellsPerWavelength.length === 0) problems.push('cellsPerWavelength: give at least one value');
-  if (o.minCells !== undefined && o.maxCells !== undefined && o.minCells > o.maxCells) problems.push(`min-cells ${o.minCells} is above max-cells ${o.maxCells}`);
-  return problems;
-}
-
-/** The resolutions a study measures, ascending, without repeats. */
-export function resolutionList(o: Omit<ResolutionStudyOptions, 'size_wavelengths' | 'budget_deg'>): number[] {
-  if (o.cellsPerWavelength) return [...new Set(o.cellsPerWavelength)].sort((a, b) => a - b);
-  const lo = o.minCells ?? DEFAULT_CELLS_PER_WAVELENGTH[0];
-  const hi = o.maxCells ?? DEFAULT_CELLS_PER_WAVELENGTH[DEFAULT_CELLS_PER_WAVELENGTH.length - 1];
-  return [...new Set([lo, ...DEFAULT_CELLS_PER_WAVELENGTH.filter((n) => n > lo && n < hi), hi])].sort((a, b) => a - b);
-}
-
-/**
- * The frequency the study works at: the highest analysis frequency of the scenario, or
- * when it lists none, the highest frequency at which the source spectrum is 40 dB below
- * its peak, Hz.
- */
-export function studyFrequency(s: Scenario): number {
-  if (s.frequencies.length > 0) return Math.max(...s.frequencies);
-  return waveformBand(s.source.waveform).edgeHz;
-}
-
-/**
- * The measurement run for `cellsPerWavelength` cells per wavelength along x at `f` Hz:
- * dx = λ/N, dy = dx·(the scenario's dy/dx), the scenario's Courant number, medium and
- * absorber grading (at least MEASUREMENT.minimumCells thick); a modulated Gaussian at f
- * (τ = 1/f, t0 = 5τ); lines along x, y and the 45° diagonal from 2 to 5 wavelengths; and
- * enough steps for the pulse to pass the far ends and a few periods more.
- */
-export function measurementScenario(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
-  const c = waveSpeed(s.medium.epsR);
-  const wavelength = c / f;
-  const dx = wavelength / cellsPerWavelength;
-  const dy = dx * (s.grid.dy / s.grid.dx);
-  const cells = Math.max(s.absorber.cells, MEASUREMENT.minimumCells);
-  const M = MEASUREMENT;
-  const reach = (M.sourceOffset + M.lineEnd + M.farMargin) * wavelength;
-  const nx = 2 * cells + Math.ceil(reach / dx) + 1;
-  const ny = 2 * cells + Math.ceil(reach / dy) + 1;
-  const si = cells + Math.round((M.sourceOffset * wavelength) / dx);
-  const sj = cells + Math.round((M.sourceOffset * wavelength) / dy);
-  const x = si * dx;
-  const y = sj * dy;
-  const r0 = M.lineStart * wavelength;
-  const r1 = M.lineEnd * wavelength;
-  const d = Math.SQRT1_2;
-  const tau = 1 / f;
-  const t0 = 5 * tau;
-  const dt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
-  // the pulse is over by t0 + 6τ; a slow grid (a few % at 8 cells per wavelength) arrives late
-  const window = t0 + 6 * tau + (1.05 * r1) / c + M.tailPeriods / f;
-  return {
-    format: 'gridgauge-scenario',
-    version: 1,
-    grid: { nx, ny, dx, dy, courant: s.grid.courant },
-    medium: { ...s.medium },
-    absorber: { ...s.absorber, cells },
-    source: { x, y, amplitude: 1, waveform: { kind: 'modulated-gaussian', f0: f, tau, t0 } },
-    probes: [],
-    lines: [
-      { name: LINE_NAMES.x, x0: x + r0, y0: y, x1: x + r1, y1: y },
-      { name: LINE_NAMES.y, x0: x, y0: y + r0, x1: x, y1: y + r1 },
-      { name: LINE_NAMES.diagonal, x0: x + r0 * d, y0: y + r0 * d, x1: x + r1 * d, y1: y + r1 * d },
-    ],
-    frequencies: [f],
-    steps: Math.ceil(window / dt),
-  };
-}
-
-/** Phase lag per wavelength from the Yee dispersion relation at angle θ (rad), degrees, positive for a lag. */
-export function predictedLagPerWavelength(f: number, theta: number, dx: number, dy: number, dt: number, c: number): number {
-  return Math.abs(phaseErrorPerWavelengthDeg(f, theta, dx, dy, dt, c));
-}
-
-/**
- * Predicted lag per wavelength along x, y and the 45° diagonal at `cellsPerWavelength`
- * cells per wavelength along x, for a Courant number and dy/dx held fixed, degrees.
- * Works for any real N (the page draws it as a smooth curve).
- */
-export function predictedLags(f: number, epsR: number, courant: number, aspect: number, cellsPerWavelength: number): { x: number; y: number; diagonal: number } {
-  const c = waveSpeed(epsR);
-  const dx = c / f / cellsPerWavelength;
-  const dy = aspect * dx;
-  const dt = timeStep(courant, dx, dy, epsR);
-  return {
-    x: predictedLagPerWavelength(f, 0, dx, dy, dt, c),
-    y: predictedLagPerWavelength(f, Math.PI / 2, dx, dy, dt, c),
-    diagonal: predictedLagPerWavelength(f, Math.PI / 4, dx, dy, dt, c),
-  };
-}
-
-/**
- * The user's scenario at another resolution: dx = λ/N at frequency `f` (dy keeps its
- * ratio to dx), the same Courant number, absorber cells, physical interior and simulated
- * time; source, probes and lines keep their distance from the interior's corner. This is
- * what "apply" does with a recommendation. The result still needs validation (memory cap).
- */
-export function applyResolution(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
-  const { nx, ny, dx, dy } = s.grid;
-  const L = s.absorber.cells;
-  const newDx = waveSpeed(s.medium.epsR) / f / cellsPerWavelength;
-  const newDy = newDx * (dy / dx);
-  const interior = (count: number, old: number, d: number) => Math.max(1, Math.ceil(((count - 1 - 2 * L) * old) / d - 1e-9));
-  const mx = (x: number) => x - L * dx + L * newDx;
-  const my = (y: number) => y - L * dy + L * newDy;
-  const oldDt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
-  const newDt = timeStep(s.grid.courant, newDx, newDy, s.medium.epsR);
-  return {
-    ...s,
-    grid: { ...s.grid, dx: newDx, dy: newDy, nx: interior(nx, dx, newDx) + 1 + 2 * L, ny: interior(ny, dy, newDy) + 1 + 2 * L },
-    source: { ...s.source, x: mx(s.source.x), y: my(s.source.y) },
-    probes: s.probes.map((p) => ({ ...p, x: mx(p.x), y: my(p.y) })),
-    lines: s.lines.map((l) => ({ ...l, x0: mx(l.x0), y0: my(l.y0), x1: mx(l.x1), y1: my(l.y1) })),
-    steps: Math.max(1, Math.ceil((s.steps * oldDt) / newDt - 1e-9)),
-  };
-}
-
-export interface ResolutionCandidatePlan {
-  cellsPerWavelength: number;
-  dx_m: number;
-  dy_m: number;
-  dt_s: number;
-  scenario: Scenario;
-  /** Lag per wavelength the dispersion relation predicts, degrees. */
-  predicted: { x: number; y: number; diagonal: number };
-}
-
-export interface ResolutionStudyPlan {
-  size_wavelengths: number;
-  budget_deg: number;
-  frequency_Hz: number;
-  wavelength_m: number;
-  courant: number;
-  epsR: number;
-  /** dy/dx, held fixed. */
-  aspect: number;
-  /** Absorber cells assumed for the project grid. */
-  absorberCells: number;
-  candidates: ResolutionCandidatePlan[];
-}
-
-/** The measurement runs of a resolution study. Throws RangeError on bad options. */
-export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions): ResolutionStudyPlan {
-  const problems = resolutionOptionProblems(options);
-  if (problems.length > 0) throw new RangeError(problems.join('; '));
-  const f = studyFrequency(s);
-  const c = waveSpeed(s.medium.epsR);
-  const aspect = s.grid.dy / s.grid.dx;
-  const candidates = resolutionList(options).map((n): ResolutionCandidatePlan => {
-    const scenario = measurementScenario(s, n, f);
-    const { dx, dy } = scenario.grid;
-    return {
-      cellsPerWavelength: n, dx_m: dx, dy_m: dy, dt_s: timeStep(s.grid.courant, dx, dy, s.medium.epsR), scenario,
-      predicted: predictedLags(f, s.medium.epsR, s.grid.courant, aspect, n),
-    };
-  });
-  return {
-    size_wavelengths: options.size_wavelengths,
-    budget_deg: options.budget_deg,
-    frequency_Hz: f,
-    wavelength_m: c / f,
-    courant: s.grid.courant,
-    epsR: s.medium.epsR,
-    aspect,
-    absorberCells: s.absorber.cells,
-    candidates,
-  };
-}
-
-/** Memory and run time of a square 2D project grid at one resolution. */
-export interface ProjectEstimate {
-  nx: number;
-  ny: number;
-  steps: number;
-  memory_bytes: number;
-  /** At the engine speed measured during the study; NaN until one run has finished. */
-  seconds: number;
-}
-
-/**
- * A 2D grid covering size × size wavelengths at `cellsPerWavelength` cells per wavelength
- * along x (dy = aspect·dx), plus the absorber on every side, run long enough for a wave
- * to cross its diagonal once after a 10-period pulse. Memory from the engine's own
- * estimate (fields, CPML, coefficients, source table); time = nx·ny·steps / speed.
- */
-export function projectEstimate(
-  size_wavelengths: number, cellsPerWavelength: number, aspect: number, courant: number, absorberCells: number, mcellsPerSecond: number,
-): ProjectEstimate {
-  const nx = Math.ceil(size_wavelengths * cellsPerWavelength) + 1 + 2 * absorberCells;
-  const ny = Math.ceil((size_wavelengths * cellsPerWavelength) / aspect) + 1 + 2 * absorberCells;
-  // in periods: the pulse (10) and the diagonal in wavelengths; one period is N·(dx/min(dx,dy))/S steps
-  const stepsPerPeriod = (cellsPerWavelength / courant) * (1 / Math.min(1, aspect));
-  const steps = Math.ceil((10 + size_wavelengths * Math.hypot(1, 1)) * stepsPerPeriod);
-  const memory_bytes = engineMemoryBytes({ nx, ny, cells: absorberCells, steps, probes: 0, dftPoints: 0, frequencies: 0, fullGridDft: false });
-  return { nx, ny, steps, memory_bytes, seconds: (nx * ny * steps) / (mcellsPerSecond * 1e6) };
+/** Phase error along one probe line, fitted as phase = intercept + slope·ρ. */
+export interface LinePhaseSlope {
+  name: string;
+  /** Slope of the unwrapped phase error against ρ, degrees per wavelength of the medium (negative: the grid lags). */
+  slopeDegPerWavelength: number;
+  /** Phase error extrapolated to ρ = 0, degrees (the near-source offset the fit removes). */
+  interceptDeg: number;
+  /** RMS distance of the measured phase errors from the fitted line, degrees. */
+  residualRmsDeg: number;
 }
 
 export interface ResolutionCandidateResult {
@@ -292,7 +63,7 @@ export interface ResolutionStudyResult {
   wavelength_m: number;
   courant: number;
   aspect: number;
-  /** Engine speed over all measurement runs, million Ez-node updates per second per worker. */
+  /** Engine speed over all measurement runs, million node updates per second per worker. */
   mcells_per_second: number;
   candidates: ResolutionCandidateResult[];
   /** Coarsest resolution whose projected error meets the budget; null if none. */
@@ -303,17 +74,45 @@ export interface ResolutionStudyResult {
   seconds: number;
 }
 
+/**
+ * Phase error arg(FDTD/exact) at every node of every line at the run's first analysis
+ * frequency, unwrapped along the line, with its least-squares slope against ρ. FDTD is the
+ * scheme's transfer function (as in lines.csv); exact is −(ωμ/4)·H0^(2)(kρ). The fit removes
+ * the constant near-source offset, leaving the phase the grid loses per unit distance,
+ * which is what the dispersion relation predicts.
+ */
+export function lineSlopes(scenario: Scenario, run: SpectraResult): LinePhaseSlope[] {
+  const layout = layoutOf(scenario);
+  const f = scenario.frequencies[0];
+  const wavelength = layout.c / f;
+  let point = layout.probes.length;
+  return layout.lines.map((line): LinePhaseSlope => {
+    const rho = new Float64Array(line.nodes.length);
+    const wrapped = new Float64Array(line.nodes.length);
+    line.nodes.forEach((node, k) => {
+      rho[k] = nodeDistance(node, layout.source, layout.dx, layout.dy);
+      const exact = lineCurrentTransfer(f, rho[k], scenario.medium.epsR);
+      wrapped[k] = complexRatioErrors(transferAt(run, 0, point++), exact).phaseDeg;
+    });
+    const fit = fitLine(rho, unwrapDegrees(wrapped));
+    return { name: line.name, slopeDegPerWavelength: fit.slope * wavelength, interceptDeg: fit.intercept, residualRmsDeg: fit.residualRms };
+  });
+}
+
+const projectOf = (plan: ResolutionStudyPlan, cellsPerWavelength: number, mcells: number) =>
+  projectEstimate(plan.size_wavelengths, cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, mcells);
+
 /** Figures of one measurement run (project time left NaN: the speed is known at the end). */
-export function evaluateResolution(plan: ResolutionStudyPlan, c: ResolutionCandidatePlan, run: PhaseSlopeResult): ResolutionCandidateResult {
+export function evaluateResolution(plan: ResolutionStudyPlan, c: ResolutionCandidatePlan, run: SpectraResult): ResolutionCandidateResult {
+  const lines = lineSlopes(c.scenario, run);
   const lag = (name: string) => {
-    const line = run.lines.find((l) => l.name === name);
+    const line = lines.find((l) => l.name === name);
     return line ? Math.abs(line.slopeDegPerWavelength) : NaN;
   };
   const x = lag(LINE_NAMES.x);
   const y = lag(LINE_NAMES.y);
   const diagonal = lag(LINE_NAMES.diagonal);
   const axis = Math.max(x, y);
-  const worst = Math.max(axis, diagonal);
   return {
     cellsPerWavelength: c.cellsPerWavelength,
     dx_m: c.dx_m,
@@ -324,11 +123,11 @@ export function evaluateResolution(plan: ResolutionStudyPlan, c: ResolutionCandi
     predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
     x_deg_per_wavelength: x,
     y_deg_per_wavelength: y,
-    projected_error_deg: worst * plan.size_wavelengths,
-    fit_residual_deg: Math.max(...run.lines.map((l) => l.residualRmsDeg)),
+    projected_error_deg: Math.max(axis, diagonal) * plan.size_wavelengths,
+    fit_residual_deg: Math.max(...lines.map((l) => l.residualRmsDeg)),
     seconds: run.seconds,
     cellUpdates: run.cellUpdates,
-    project: projectEstimate(plan.size_wavelengths, c.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, NaN),
+    project: projectOf(plan, c.cellsPerWavelength, NaN),
   };
 }
 
@@ -342,73 +141,189 @@ export function recommendResolution<T extends { cellsPerWavelength: number; proj
   return best;
 }
 
-/**
- * Runs a planned resolution study on a pool, finest resolution first (the largest runs),
- * streaming each candidate as it finishes. When cancelled, resolves with what finished.
- */
-export async function runResolutionStudy(
-  plan: ResolutionStudyPlan, pool: StudyPool, callbacks: StudyCallbacks<ResolutionCandidateResult> = {},
-): Promise<ResolutionStudyResult> {
-  const started = performance.now();
-  const { signal } = callbacks;
-  const tracker = new ProgressTracker(plan.candidates.map((c) => jobCellUpdates(c)), callbacks.onProgress);
-  const results: ResolutionCandidateResult[] = [];
-  const workers = new Set<number>();
-  let cancelled = false;
-  const cancel = () => { cancelled = true; pool.cancel(); };
-  if (signal?.aborted) cancel();
-  signal?.addEventListener('abort', cancel, { once: true });
+/** Columns of resolution.csv: the contract's first, extras after. */
+export const RESOLUTION_CSV_HEADER = [
+  'cellsPerWavelength', 'dx_m', 'axis_deg_per_wavelength', 'diagonal_deg_per_wavelength',
+  'predicted_axis_deg_per_wavelength', 'predicted_diagonal_deg_per_wavelength',
+  'projected_error_deg', 'x_deg_per_wavelength', 'y_deg_per_wavelength', 'fit_residual_deg',
+  'project_nx', 'project_ny', 'project_steps', 'project_memory_bytes', 'project_seconds', 'seconds',
+] as const;
 
-  const order = plan.candidates.map((_, k) => k).reverse();
-  await Promise.all(order.map((index) => {
-    const c = plan.candidates[index];
-    return pool.run({ kind: 'phase-slope', scenario: c.scenario }, (d, t) => tracker.step(index, d / t)).then(
-      (o) => {
-        workers.add(o.worker);
-        tracker.finish(index);
-        const r = evaluateResolution(plan, c, o.result);
-        results.push(r);
-        callbacks.onCandidate?.(r);
-      },
-      (e: unknown) => {
-        if (e instanceof StudyCancelled) return;
-        tracker.finish(index);
-        const r: ResolutionCandidateResult = {
-          cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m, dy_m: c.dy_m,
-          axis_deg_per_wavelength: NaN, diagonal_deg_per_wavelength: NaN,
-          predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
-          predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
-          x_deg_per_wavelength: NaN, y_deg_per_wavelength: NaN, projected_error_deg: NaN, fit_residual_deg: NaN,
-          seconds: NaN, cellUpdates: 0,
-          project: projectEstimate(plan.size_wavelengths, c.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, NaN),
-          error: e instanceof Error ? e.message : String(e),
-        };
-        results.push(r);
-        callbacks.onCandidate?.(r);
-      },
-    );
-  }));
-  signal?.removeEventListener('abort', cancel);
-
-  const ran = results.filter((r) => r.seconds > 0);
-  const mcells = ran.reduce((a, r) => a + r.cellUpdates, 0) / ran.reduce((a, r) => a + r.seconds, 0) / 1e6;
-  for (const r of results) {
-    r.project = projectEstimate(plan.size_wavelengths, r.cellsPerWavelength, plan.aspect, plan.courant, plan.absorberCells, mcells);
-  }
-  results.sort((a, b) => a.cellsPerWavelength - b.cellsPerWavelength);
+/** The object written as `resolution.json` and printed by `resolution-study --json`. */
+export function resolutionJsonObject(r: ResolutionStudyResult) {
+  const rec = r.recommended;
   return {
-    budget_deg: plan.budget_deg,
-    size_wavelengths: plan.size_wavelengths,
-    frequency_Hz: plan.frequency_Hz,
-    wavelength_m: plan.wavelength_m,
-    courant: plan.courant,
-    aspect: plan.aspect,
-    mcells_per_second: mcells,
-    candidates: results,
-    recommended: recommendResolution(results, plan.budget_deg),
-    planned: plan.candidates.length,
-    complete: !cancelled && results.length === plan.candidates.length,
-    workers: [...workers].sort((a, b) => a - b),
-    seconds: (performance.now() - started) / 1000,
+    budget_deg: r.budget_deg,
+    size_wavelengths: r.size_wavelengths,
+    recommended: rec && { cellsPerWavelength: rec.cellsPerWavelength, dx_m: rec.dx_m, projected_error_deg: rec.projected_error_deg, dy_m: rec.dy_m, project: rec.project },
+    candidates: r.candidates.map((c) => ({
+      cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m,
+      axis_deg_per_wavelength: c.axis_deg_per_wavelength, diagonal_deg_per_wavelength: c.diagonal_deg_per_wavelength,
+      predicted_axis_deg_per_wavelength: c.predicted_axis_deg_per_wavelength, predicted_diagonal_deg_per_wavelength: c.predicted_diagonal_deg_per_wavelength,
+      projected_error_deg: c.projected_error_deg, x_deg_per_wavelength: c.x_deg_per_wavelength, y_deg_per_wavelength: c.y_deg_per_wavelength,
+      fit_residual_deg: c.fit_residual_deg, dy_m: c.dy_m, project: c.project, seconds: c.seconds,
+      ...(c.error ? { error: c.error } : {}),
+    })),
+    frequency_Hz: r.frequency_Hz,
+    wavelength_m: r.wavelength_m,
+    courant: r.courant,
+    dy_over_dx: r.aspect,
+    mcells_per_second: r.mcells_per_second,
+    method: 'least-squares slope of arg(FDTD/exact) against distance along lines 2 to 5 wavelengths from a line current; lag per wavelength, positive',
+    planned: r.planned,
+    complete: r.complete,
+    workers: r.workers.length,
+    study_seconds: r.seconds,
   };
+}
+
+function resolutionOutputs(r: ResolutionStudyResult): StudyOutput[] {
+  return [
+    {
+      name: 'resolution.csv', kind: 'csv', header: RESOLUTION_CSV_HEADER,
+      rows: r.candidates.map((c) => [
+        c.cellsPerWavelength, c.dx_m, c.axis_deg_per_wavelength, c.diagonal_deg_per_wavelength,
+        c.predicted_axis_deg_per_wavelength, c.predicted_diagonal_deg_per_wavelength,
+        c.projected_error_deg, c.x_deg_per_wavelength, c.y_deg_per_wavelength, c.fit_residual_deg,
+        c.project.nx, c.project.ny, c.project.steps, c.project.memory_bytes, c.project.seconds, c.seconds,
+      ]),
+    },
+    { name: 'resolution.json', kind: 'json', value: resolutionJsonObject(r) },
+  ];
+}
+
+const deg = (x: number) => formatSig(x, 3);
+const fileSafe = (x: number) => String(x).replace(/[^0-9a-zA-Z.+-]/g, '_');
+
+export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, ResolutionCandidatePlan, ResolutionStudyPlan, ResolutionCandidateResult, ResolutionStudyResult> = {
+  id: 'resolution',
+  title: 'Resolution',
+  verb: 'resolution-study',
+  summary: 'Measure phase error per wavelength against cells per wavelength (default 8..60); recommend the coarsest cell that keeps the phase error across SIZE within BUDGET.',
+  options: [
+    { name: 'size', label: 'Project size (wavelengths)', metavar: 'WAVELENGTHS', required: true, help: 'largest distance in the project, in wavelengths at the highest frequency (required)', defaultText: '12' },
+    { name: 'budget', label: 'Phase budget (degrees)', metavar: 'DEGREES', required: true, help: 'phase error allowed across that distance (required)', defaultText: '5' },
+    { name: 'min-cells', label: 'Coarsest cells per wavelength', help: 'lower end of the range (default 8)', defaultText: '8' },
+    { name: 'max-cells', label: 'Finest cells per wavelength', help: 'upper end of the range (default 60)', defaultText: '60' },
+  ],
+  readOptions(values) {
+    const problems: string[] = [];
+    const num = (name: string, unit: string, example: string) => {
+      const r = readNumberOption(name, values[name], unit, example);
+      if (r.problem) problems.push(r.problem);
+      return r.value;
+    };
+    const size = num('size', 'wavelengths', '12');
+    const budget = num('budget', 'degrees', '5');
+    const minCells = num('min-cells', 'cells per wavelength', '8');
+    const maxCells = num('max-cells', 'cells per wavelength', '60');
+    if (problems.length) return { problems };
+    if (size === undefined) problems.push('size is required: the largest distance in the project in wavelengths at the highest frequency, e.g. 12');
+    if (budget === undefined) problems.push('budget is required: the phase error allowed across that distance in degrees, e.g. 5');
+    if (problems.length) return { problems };
+    const options: ResolutionStudyOptions = { size_wavelengths: size as number, budget_deg: budget as number, minCells, maxCells };
+    problems.push(...resolutionOptionProblems(options));
+    return problems.length ? { problems } : { options, problems };
+  },
+  plan: planResolutionStudy,
+  evaluate: (plan, c, [run]) => evaluateResolution(plan, c, run as SpectraResult),
+  failed: (plan, c, error) => ({
+    cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m, dy_m: c.dy_m,
+    axis_deg_per_wavelength: NaN, diagonal_deg_per_wavelength: NaN,
+    predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
+    predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
+    x_deg_per_wavelength: NaN, y_deg_per_wavelength: NaN, projected_error_deg: NaN, fit_residual_deg: NaN,
+    seconds: NaN, cellUpdates: 0, project: projectOf(plan, c.cellsPerWavelength, NaN), error,
+  }),
+  compare: (a, b) => a.cellsPerWavelength - b.cellsPerWavelength,
+  pick: (plan, rows) => recommendResolution(rows, plan.budget_deg),
+  finish(plan, candidates, info) {
+    const ran = candidates.filter((r) => r.seconds > 0);
+    const mcells = ran.reduce((a, r) => a + r.cellUpdates, 0) / ran.reduce((a, r) => a + r.seconds, 0) / 1e6;
+    for (const r of candidates) r.project = projectOf(plan, r.cellsPerWavelength, mcells);
+    return {
+      budget_deg: plan.budget_deg,
+      size_wavelengths: plan.size_wavelengths,
+      frequency_Hz: plan.frequency_Hz,
+      wavelength_m: plan.wavelength_m,
+      courant: plan.courant,
+      aspect: plan.aspect,
+      mcells_per_second: mcells,
+      candidates,
+      recommended: recommendResolution(candidates, plan.budget_deg),
+      planned: info.planned,
+      complete: info.complete,
+      workers: info.workers,
+      seconds: info.seconds,
+    };
+  },
+  rows: (r) => r.candidates,
+  recommended: (r) => r.recommended,
+  columns: [
+    { label: 'cells/λ', value: (c) => String(c.cellsPerWavelength) },
+    { label: 'dx', value: (c) => formatSI(c.dx_m, 'm') },
+    { label: 'dy', value: (c) => formatSI(c.dy_m, 'm') },
+    { label: 'axis °/λ', value: (c) => deg(c.axis_deg_per_wavelength) },
+    { label: 'predicted', value: (c) => deg(c.predicted_axis_deg_per_wavelength) },
+    { label: 'diagonal °/λ', value: (c) => deg(c.diagonal_deg_per_wavelength) },
+    { label: 'predicted', value: (c) => deg(c.predicted_diagonal_deg_per_wavelength) },
+    { label: 'across project', value: (c) => `${deg(c.projected_error_deg)}°` },
+    { label: 'project grid', value: (c) => `${c.project.nx} × ${c.project.ny}` },
+    { label: 'memory', value: (c) => formatBytes(c.project.memory_bytes) },
+    { label: 'time', value: (c) => (Number.isFinite(c.project.seconds) ? `${formatSig(c.project.seconds, 2)} s` : '—') },
+  ],
+  rowNotes: (r, c) => [c === r.recommended ? 'recommended' : '', c.error ?? ''].filter(Boolean),
+  heading: (r) => [
+    `resolution study at ${formatSI(r.frequency_Hz, 'Hz')} (wavelength ${formatSI(r.wavelength_m, 'm')} in the medium), ` +
+      `Courant number ${r.courant}, dy/dx ${formatSig(r.aspect, 4)}; ${r.candidates.length} of ${r.planned} resolutions`,
+    'phase lag per wavelength: measured (slope of the phase error from 2 to 5 wavelengths) and predicted by the dispersion relation',
+  ],
+  verdict(r) {
+    const lines: string[] = [];
+    const rec = r.recommended;
+    if (!r.complete) lines.push(`interrupted: ${r.candidates.length} of ${r.planned} resolutions finished; the recommendation is among those`);
+    if (rec) {
+      lines.push(`recommended: ${rec.cellsPerWavelength} cells per wavelength (dx = ${formatSI(rec.dx_m, 'm')}): ` +
+        `${formatSig(rec.projected_error_deg, 3)}° across ${r.size_wavelengths} wavelengths, budget ${r.budget_deg}°`);
+      lines.push(`  a ${r.size_wavelengths} × ${r.size_wavelengths} wavelength 2D grid: ${rec.project.nx} × ${rec.project.ny} cells, ${rec.project.steps} steps, ` +
+        `${formatBytes(rec.project.memory_bytes)}, about ${formatSig(rec.project.seconds, 2)} s at ${formatSig(r.mcells_per_second, 3)} Mcells/s`);
+    } else {
+      lines.push(`no resolution meets the budget ${r.budget_deg}° across ${r.size_wavelengths} wavelengths: recommended is null; try finer cells (--max-cells) or a larger budget`);
+    }
+    return lines;
+  },
+  noneMeets: (r) => `no resolution meets the budget ${r.budget_deg}° across ${r.size_wavelengths} wavelengths: recommended is null`,
+  outputs: resolutionOutputs,
+  json: resolutionJsonObject,
+  emit(plan) {
+    const scenarios: Record<string, Scenario> = {};
+    const entries = plan.candidates.map((c) => {
+      const name = `resolution-${fileSafe(c.cellsPerWavelength)}.json`;
+      scenarios[name] = c.scenario;
+      return {
+        file: name, cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m,
+        predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
+        predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
+      };
+    });
+    return {
+      scenarios,
+      manifest: {
+        study: 'resolution',
+        budget_deg: plan.budget_deg,
+        size_wavelengths: plan.size_wavelengths,
+        frequency_Hz: plan.frequency_Hz,
+        scoring: 'run each file; from lines.csv fit phase_err_deg against rho_m by least squares on each line; lag per wavelength = -slope * wavelength_m; projected error = worst line * size_wavelengths',
+        wavelength_m: plan.wavelength_m,
+        candidates: entries,
+      },
+    };
+  },
+  emitted: (plan) => `${plan.candidates.length} measurement scenarios and study.json`,
+  apply: (scenario, plan, pick) => applyResolution(scenario, pick.cellsPerWavelength, plan.frequency_Hz),
+};
+
+/** Runs a planned resolution study on a pool (see run-study.ts). */
+export function runResolutionStudy(plan: ResolutionStudyPlan, pool: StudyPool, callbacks: StudyCallbacks<ResolutionCandidateResult> = {}): Promise<ResolutionStudyResult> {
+  return runStudy(resolutionStudy, plan, pool, callbacks);
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { engineMemoryBytes } from '../../src/engine/memory.ts';
+import { engineMemoryBytes } from '../../src/scenario/memory.ts';
 import { instantiateEngine, loadEngineModule } from '../../src/engine/wasm.ts';
 
 // The scenario checker rejects runs by this estimate before the engine is ever asked, so it

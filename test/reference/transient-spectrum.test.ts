@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { exactTimeSeries } from '../../src/exact/transient.ts';
 import { lineCurrentTransfer } from '../../src/exact/transfer.ts';
-import { waveformExtent, waveformSpectrum, waveformValue } from '../../src/engine/waveforms.ts';
+import { waveformExtent, waveformSpectrum, waveformValue } from '../../src/scenario/waveforms.ts';
 import { C0, MU0 } from '../../src/scenario/constants.ts';
 import type { Waveform } from '../../src/scenario/types.ts';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { exactTimeSeries, transientField } from '../../src/exact/transient.ts';
-import { waveformDerivative, waveformExtent } from '../../src/engine/waveforms.ts';
+import { waveformDerivative, waveformExtent } from '../../src/scenario/waveforms.ts';
 import { C0, MU0 } from '../../src/scenario/constants.ts';
 import type { Waveform } from '../../src/scenario/types.ts';
 

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { engineMemoryBytes } from '../../src/engine/memory.ts';
+import { engineMemoryBytes } from '../../src/scenario/memory.ts';
 import { phaseErrorPerWavelengthDeg } from '../../src/exact/dispersion.ts';
 import { layoutOf, timeStep, waveSpeed } from '../../src/scenario/layout.ts';
 import { createNodePool } from '../../src/studies/node-pool.ts';

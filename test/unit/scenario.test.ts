@@ -5,7 +5,7 @@ import { C0 } from '../../src/scenario/constants.ts';
 import { demoScenario } from '../../src/scenario/defaults.ts';
 import { deriveQuantities } from '../../src/scenario/derived.ts';
 import { closestName, editDistance } from '../../src/scenario/did-you-mean.ts';
-import { engineMemoryBytes, MEMORY_CAP_BYTES } from '../../src/engine/memory.ts';
+import { engineMemoryBytes, MEMORY_CAP_BYTES } from '../../src/scenario/memory.ts';
 import { lineNodes } from '../../src/scenario/layout.ts';
 import { formatProblem, MAX_PROBLEMS, parseScenarioText, validateScenario } from '../../src/scenario/parse.ts';
 import type { ParseResult, Problem, Scenario } from '../../src/scenario/types.ts';

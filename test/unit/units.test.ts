@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatSI, formatSig } from '../../src/io/units.ts';
+import { formatBytes, formatSI, formatSig } from '../../src/scenario/units.ts';
 
 describe('SI formatting', () => {
   it('chooses the prefix that shows 1 to 999', () => {

@@ -2,7 +2,7 @@
  * A study worker of the page's pool (one per hardware thread): compiles the engine once,
  * then runs the candidate scenarios it is sent and posts their results back.
  */
-import { serveStudyJobs } from '../studies/worker-side.ts';
+import { serveStudyJobs } from './worker-side.ts';
 
 declare const self: DedicatedWorkerGlobalScope;
 
