@@ -6,10 +6,10 @@
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes } from '../scenario/units.ts';
 import {
-  ABSORBER_SWEEP_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, planAbsorberStudy, recommendAbsorber,
-  type AbsorberCandidatePlan, type AbsorberStudyOptions, type AbsorberStudyPlan, type StudyProbe,
+  ABSORBER_SWEEP_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, gradingKey, planAbsorberStudy, recommendAbsorber,
+  type AbsorberCandidatePlan, type AbsorberGrading, type AbsorberStudyOptions, type AbsorberStudyPlan, type StudyProbe,
 } from './absorber-plan.ts';
-import { readListOption, readNumberOption, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { readListOption, readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
 import type { ProbeSeriesResult } from './jobs.ts';
 import type { StudyPool } from './pool.ts';
 import { reflectionErrorDb, reflectionErrorSeries } from './reflection.ts';
@@ -158,6 +158,48 @@ function absorberOutputs(r: AbsorberStudyResult): StudyOutput[] {
   ];
 }
 
+const gradingLabel = (c: AbsorberGrading) => `m ${c.order}, σ×${c.sigmaScale}, κ ${c.kappaMax}, α ${c.alphaMax}`;
+
+/** Reflection against layer cells, one curve per grading swept over two or more thicknesses; error against time. */
+function absorberCharts(plan: AbsorberStudyPlan, rows: readonly AbsorberCandidateResult[], result: AbsorberStudyResult | undefined): StudyChart[] {
+  const cells = [...new Set(plan.candidates.map((c) => c.absorber.cells))].sort((a, b) => a - b);
+  const byGrading = new Map<string, AbsorberGrading>();
+  const thicknesses = new Map<string, Set<number>>();
+  for (const c of plan.candidates) {
+    const key = gradingKey(c.absorber);
+    byGrading.set(key, c.absorber);
+    thicknesses.set(key, (thicknesses.get(key) ?? new Set()).add(c.absorber.cells));
+  }
+  const curves = [...byGrading.entries()].filter(([key]) => (thicknesses.get(key)?.size ?? 0) >= 2);
+  const value = (key: string, n: number) => {
+    const c = rows.find((r) => r.cells === n && gradingKey(r) === key);
+    return c && Number.isFinite(c.reflection_dB) ? c.reflection_dB : null;
+  };
+  const charts: StudyChart[] = [{
+    id: 'reflection', title: 'Reflection against layer cells',
+    x: { label: 'layer cells' }, y: { label: 'reflection (dB)' },
+    series: [
+      ...curves.map(([key, g], k) => ({ label: gradingLabel(g), x: cells, y: cells.map((n) => value(key, n)), colour: k })),
+      { label: 'target', x: cells, y: cells.map(() => plan.target_dB), style: 'dashed' as const, colour: 'error' as const },
+    ],
+  }];
+  const shown = [result?.current, result?.recommended].filter((c): c is AbsorberCandidateResult => !!c && c.errorSeries.length > 0);
+  if (result && shown.length > 0) {
+    const n = Math.max(...shown.map((c) => c.errorSeries.length));
+    const t = Array.from({ length: n }, (_, k) => k * result.dt_s);
+    const toDb = (c: AbsorberCandidateResult | null) => t.map((_, k) => (c && k < c.errorSeries.length && c.errorSeries[k] > 0 ? 20 * Math.log10(c.errorSeries[k]) : null));
+    charts.push({
+      id: 'error', title: 'Error against time, worst probe',
+      x: { label: 't', unit: 's' }, y: { label: '|E − Eref| / max|Eref| (dB)' },
+      series: [
+        { label: 'current', x: t, y: toDb(result.current), colour: 'exact' },
+        { label: 'recommended', x: t, y: toDb(result.recommended), colour: 'fdtd' },
+      ],
+    });
+  }
+  return charts;
+}
+
 const fileSafe = (x: number) => String(x).replace(/[^0-9a-zA-Z.+-]/g, '_');
 
 export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandidatePlan, AbsorberStudyPlan, AbsorberCandidateResult, AbsorberStudyResult> = {
@@ -283,6 +325,10 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
   },
   emitted: (plan) => `reference.json, ${plan.candidates.length} candidate scenarios and study.json`,
   apply: (scenario, _plan, pick) => applyAbsorber(scenario, absorberOf(pick)),
+  charts: absorberCharts,
+  sharedRuns: 'the reference grid',
+  pageNote: 'Each candidate keeps your interior, source and probes and changes only the layer around them. Reflection is measured against one run on a grid so large that nothing returns within your steps.',
+  rowData: (c) => ({ key: c.key, cells: String(c.cells) }),
 };
 
 /** Runs a planned absorber study on a pool (see run-study.ts). Rejects if the reference run fails. */

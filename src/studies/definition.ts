@@ -48,6 +48,28 @@ export interface StudyColumn<C> {
   text?: boolean;
 }
 
+/** One curve or point set of a study chart. */
+export interface ChartSeries {
+  label: string;
+  x: readonly number[];
+  /** null where the curve has no value (a failed candidate). */
+  y: readonly (number | null)[];
+  /** "line" (default), "points" (markers only), "dashed" (a limit or budget). */
+  style?: 'line' | 'points' | 'dashed';
+  /** Theme colour role, or an index into the page's list of curve colours. */
+  colour?: 'fdtd' | 'exact' | 'error' | 'predicted' | number;
+}
+
+/** A chart a study shows, as data: the page draws it without knowing the physics. */
+export interface StudyChart {
+  id: string;
+  title: string;
+  /** Axis label with its unit, and whether the axis is logarithmic. */
+  x: { label: string; unit?: string; log?: boolean };
+  y: { label: string; unit?: string; log?: boolean };
+  series: ChartSeries[];
+}
+
 /** What every planned candidate has: a stable key and the runs it needs. */
 export interface PlannedCandidate { key: string; jobs: StudyJob[] }
 
@@ -122,6 +144,14 @@ export interface StudyDefinition<O = unknown, CP extends PlannedCandidate = Plan
   emitted(plan: P): string;
   /** The user's scenario with a recommendation applied (the page's Apply button). */
   apply?(scenario: Scenario, plan: P, pick: C): Scenario;
+  /** Charts of the candidates so far (the result once finished), as data for the page. */
+  charts?(plan: P, rows: readonly C[], result: R | undefined): StudyChart[];
+  /** What the shared runs are, in words, for progress ("the reference grid"). */
+  sharedRuns?: string;
+  /** A note under the page's form: how the study measures. */
+  pageNote?: string;
+  /** Row attributes for the page's table (data-* names without the prefix). */
+  rowData?(candidate: C): Record<string, string>;
 }
 
 /** Any definition, for registries and generic code. */

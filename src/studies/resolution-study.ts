@@ -9,12 +9,12 @@ import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { layoutOf, nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
-import { readNumberOption, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
 import { transferAt, type SpectraResult } from './jobs.ts';
 import { fitLine, unwrapDegrees } from './phase-fit.ts';
 import type { StudyPool } from './pool.ts';
 import {
-  applyResolution, LINE_NAMES, planResolutionStudy, projectEstimate, resolutionOptionProblems,
+  applyResolution, LINE_NAMES, planResolutionStudy, predictedLags, projectEstimate, resolutionOptionProblems,
   type ProjectEstimate, type ResolutionCandidatePlan, type ResolutionStudyOptions, type ResolutionStudyPlan,
 } from './resolution-plan.ts';
 import { runStudy, type StudyCallbacks } from './run-study.ts';
@@ -193,6 +193,28 @@ function resolutionOutputs(r: ResolutionStudyResult): StudyOutput[] {
 }
 
 const deg = (x: number) => formatSig(x, 3);
+
+/** Measured lag per wavelength (points) over the dispersion relation's curves (lines), log–log, with the budget. */
+function resolutionCharts(plan: ResolutionStudyPlan, rows: readonly ResolutionCandidateResult[]): StudyChart[] {
+  const measured = rows.filter((r) => !r.error);
+  if (measured.length === 0) return [];
+  const lo = plan.candidates[0].cellsPerWavelength;
+  const hi = plan.candidates[plan.candidates.length - 1].cellsPerWavelength;
+  const dense = Array.from({ length: 60 }, (_, k) => lo * (hi / lo) ** (k / 59));
+  const predicted = dense.map((n) => predictedLags(plan.frequency_Hz, plan.epsR, plan.courant, plan.aspect, n));
+  const mx = measured.map((r) => r.cellsPerWavelength);
+  return [{
+    id: 'phase', title: 'Phase lag per wavelength against cells per wavelength',
+    x: { label: 'cells per wavelength', log: true }, y: { label: 'phase lag (° per wavelength)', log: true },
+    series: [
+      { label: 'measured, axis', x: mx, y: measured.map((r) => r.axis_deg_per_wavelength), style: 'points', colour: 'fdtd' },
+      { label: 'measured, diagonal', x: mx, y: measured.map((r) => r.diagonal_deg_per_wavelength), style: 'points', colour: 'exact' },
+      { label: 'predicted, axis', x: dense, y: predicted.map((p) => Math.max(p.x, p.y)), colour: 'fdtd' },
+      { label: 'predicted, diagonal', x: dense, y: predicted.map((p) => p.diagonal), colour: 'exact' },
+      { label: 'budget / size', x: [lo, hi], y: [plan.budget_deg / plan.size_wavelengths, plan.budget_deg / plan.size_wavelengths], style: 'dashed', colour: 'error' },
+    ],
+  }];
+}
 const fileSafe = (x: number) => String(x).replace(/[^0-9a-zA-Z.+-]/g, '_');
 
 export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, ResolutionCandidatePlan, ResolutionStudyPlan, ResolutionCandidateResult, ResolutionStudyResult> = {
@@ -321,6 +343,9 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
   },
   emitted: (plan) => `${plan.candidates.length} measurement scenarios and study.json`,
   apply: (scenario, plan, pick) => applyResolution(scenario, pick.cellsPerWavelength, plan.frequency_Hz),
+  charts: resolutionCharts,
+  pageNote: 'Held fixed: your Courant number and dy/dx. Cells per wavelength count along x at your highest analysis frequency. Each resolution runs its own line current with probe lines along x, y and the diagonal from 2 to 5 wavelengths out.',
+  rowData: (c) => ({ key: String(c.cellsPerWavelength), cells: String(c.cellsPerWavelength) }),
 };
 
 /** Runs a planned resolution study on a pool (see run-study.ts). */
