@@ -1,6 +1,6 @@
 import { css, html, LitElement, nothing, type TemplateResult } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { waveformDefaults } from '../scenario/waveforms.ts';
+import { withWaveformDefaults } from '../scenario/waveforms.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import { renderPath, type PathSegment } from '../scenario/path.ts';
@@ -282,9 +282,7 @@ export class GgSetup extends LitElement {
     const f0 = this.num(['source', 'waveform', 'f0']);
     const tau = this.num(['source', 'waveform', 'tau']);
     if ((kind !== 'gaussian' && !f0) || (kind === 'gaussian' && !tau)) return undefined;
-    const d = waveformDefaults(kind, f0, tau);
-    const wave: Waveform = { kind, ...(f0 !== undefined ? { f0 } : {}), ...(d.tau !== undefined ? { tau: d.tau } : {}), t0: this.num(['source', 'waveform', 't0']) ?? d.t0 };
-    return this.same(wave);
+    return this.same(withWaveformDefaults({ kind, f0, tau, t0: this.num(['source', 'waveform', 't0']) }));
   }
 
   /** The same object while the waveform is unchanged, so the preview does not redraw on every keystroke. */
@@ -303,8 +301,8 @@ export class GgSetup extends LitElement {
     const tau = this.num(['source', 'waveform', 'tau']);
     try {
       if (kind === 'ricker' ? !f0 : kind === 'gaussian' ? !tau : !(f0 || tau)) return 'default';
-      const d = waveformDefaults(kind, f0, tau);
-      const v = which === 't0' ? d.t0 : d.tau;
+      const d = withWaveformDefaults({ kind, f0, tau });
+      const v = which === 't0' ? d.t0 : d.kind === 'ricker' ? undefined : d.tau;
       return v === undefined ? 'default' : `default ${siToText(Number(v.toPrecision(4)), UNIT_EXPONENT[this.units.time])}`;
     } catch {
       return 'default';

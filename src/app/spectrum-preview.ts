@@ -39,7 +39,7 @@ export class GgSpectrumPreview extends SingleChartElement {
   protected willUpdate(changed: PropertyValues<this>): void {
     if (changed.has('waveform') && this.waveform) {
       const band = waveformBand(this.waveform);
-      this.marks = { f0: this.waveform.kind === 'gaussian' ? band.peakHz : (this.waveform.f0 as number), edge: band.edgeHz };
+      this.marks = { f0: this.waveform.kind === 'gaussian' ? band.peakHz : this.waveform.f0, edge: band.edgeHz };
     }
   }
 

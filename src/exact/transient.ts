@@ -33,9 +33,9 @@ const derivative = waveformDerivative;
  */
 function highestAngularFrequency(w: Waveform): number {
   switch (w.kind) {
-    case 'gaussian': return 10 / (w.tau as number);
-    case 'modulated-gaussian': return 2 * Math.PI * (w.f0 as number) + 10 / (w.tau as number);
-    case 'ricker': return 10 * Math.PI * (w.f0 as number);
+    case 'gaussian': return 10 / w.tau;
+    case 'modulated-gaussian': return 2 * Math.PI * w.f0 + 10 / w.tau;
+    case 'ricker': return 10 * Math.PI * w.f0;
   }
 }
 

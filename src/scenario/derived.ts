@@ -73,7 +73,7 @@ export function deriveQuantities(s: Scenario): DerivedQuantities {
   const dt = timeStep(courant, dx, dy, s.medium.epsR);
   const limit = stabilityLimit(dx, dy);
   const band = waveformBand(s.source.waveform);
-  const f0 = s.source.waveform.kind === 'gaussian' ? band.peakHz : (s.source.waveform.f0 as number);
+  const f0 = s.source.waveform.kind === 'gaussian' ? band.peakHz : s.source.waveform.f0;
   const coarser = Math.max(dx, dy);
   const wavelengthAt = (f: number) => (f > 0 ? c / f : NaN);
   return {

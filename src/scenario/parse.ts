@@ -3,7 +3,7 @@
  * `Scenario`, or the full list of problems, each with the path of the field and a message
  * that says what to write instead. Neither function throws, whatever it is given.
  */
-import { waveformDefaults } from './waveforms.ts';
+import { withWaveformDefaults } from './waveforms.ts';
 import { closestName } from './did-you-mean.ts';
 import { locateJsonError } from './json-error.ts';
 import type { PathSegment } from './path.ts';
@@ -12,7 +12,7 @@ import type { RawProblem } from './rules.ts';
 import { crossFieldProblems, FieldReader } from './rules.ts';
 import type { ScenarioFromSchema } from './schema.ts';
 import { FIELD_OWNERS, FORMAT_NAME, FORMAT_VERSION, knownFieldsAt, scenarioSchema, versionMessage } from './schema.ts';
-import type { ParseResult, Problem, Scenario, Waveform } from './types.ts';
+import type { ParseResult, Problem, Scenario } from './types.ts';
 
 /** Path used for problems with the text as a whole (empty, malformed JSON). */
 export const FILE_PATH = '(file)';
@@ -146,12 +146,7 @@ function finish(raw: RawProblem[]): Problem[] {
 }
 
 function toScenario(d: ScenarioFromSchema): Scenario {
-  const w = d.source.waveform;
-  const filled = waveformDefaults(w.kind, w.f0, w.tau);
-  const waveform: Waveform = { kind: w.kind } as Waveform;
-  if (w.kind !== 'gaussian') waveform.f0 = w.f0;
-  if (w.kind !== 'ricker') waveform.tau = w.tau ?? filled.tau;
-  waveform.t0 = w.t0 ?? filled.t0;
+  const waveform = withWaveformDefaults(d.source.waveform);
   return {
     format: FORMAT_NAME,
     version: FORMAT_VERSION,

@@ -6,15 +6,18 @@
 
 export type WaveformKind = 'gaussian' | 'modulated-gaussian' | 'ricker';
 
-export interface Waveform {
-  kind: WaveformKind;
-  /** Centre frequency (modulated-gaussian, ricker), Hz. Absent for gaussian. */
-  f0?: number;
-  /** Gaussian width, s: I ∝ exp(−((t−t0)/τ)²). Absent for ricker. */
-  tau?: number;
-  /** Delay of the pulse centre, s. */
-  t0: number;
-}
+/**
+ * The source waveform, by kind (README "Scenario file"), with every default filled in:
+ * `gaussian` I = A·exp(−((t−t0)/τ)²); `modulated-gaussian` the same times sin(2πf0(t−t0));
+ * `ricker` I = A(1 − 2π²f0²(t−t0)²)·exp(−π²f0²(t−t0)²). f0 in Hz, τ and t0 in s.
+ */
+export type Waveform =
+  | { kind: 'gaussian'; tau: number; t0: number }
+  | { kind: 'modulated-gaussian'; f0: number; tau: number; t0: number }
+  | { kind: 'ricker'; f0: number; t0: number };
+
+/** A waveform as written, before defaults: the fields its kind needs, others may be absent. */
+export interface WaveformInput { kind: WaveformKind; f0?: number; tau?: number; t0?: number }
 
 export interface Grid { nx: number; ny: number; dx: number; dy: number; courant: number }
 /**
