@@ -1,9 +1,6 @@
 import { readFile, stat } from 'node:fs/promises';
-import { parseScenarioText } from '../scenario/parse.ts';
+import { parseScenarioText, SCENARIO_FILE_CAP_BYTES } from '../scenario/parse.ts';
 import type { Problem, Scenario } from '../scenario/types.ts';
-
-/** Largest scenario file read, bytes: a scenario is a few kilobytes; anything this big is a mistake. */
-export const SCENARIO_FILE_CAP_BYTES = 5 * 1024 * 1024;
 
 /** Invalid input: each problem is printed on its own line, exit code 2. */
 export class InvalidInput extends Error {

@@ -49,11 +49,7 @@ function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number
   if (!(rho > 0)) return NaN;
   const { dx, dy, dt, c } = sim.layout;
   const theta = Math.atan2((to.j - from.j) * dy, (to.i - from.i) * dx);
-  try {
-    return wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
-  } catch {
-    return NaN;
-  }
+  return wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
 }
 
 function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number): SpectrumPoint {

@@ -5,6 +5,19 @@ import type { Absorber } from '../scenario/types.ts';
 export interface CpmlCoefficients { b: number; a: number; kappa: number; sigma: number; alpha: number }
 
 /**
+ * The largest CPML conductivity of a layer, S/m: σmax = sigmaScale·0.8(m+1)/(η·Δ) with
+ * η = η0/√εr the medium's impedance (Roden & Gedney 2000; the 0.8(m+1)/(ηΔ) optimum is
+ * common practice for polynomial grading). The one place the rule is written.
+ *
+ * @example
+ * cpmlSigmaMax({ cells: 10, order: 3, sigmaScale: 1, kappaMax: 5, alphaMax: 0.05 }, 1e-3, 1); // ≈ 8.49 S/m
+ */
+export function cpmlSigmaMax(absorber: Absorber, spacing: number, epsR: number): number {
+  const eta = ETA0 / Math.sqrt(epsR);
+  return (absorber.sigmaScale * 0.8 * (absorber.order + 1)) / (eta * spacing);
+}
+
+/**
  * Graded CPML parameters and recursive-convolution coefficients at depth `depth` (m) into a
  * layer of thickness d = cells·Δ (Roden & Gedney, Microwave Opt. Technol. Lett. 27, 2000):
  * σ = σmax(ρ/d)^m, κ = 1 + (κmax − 1)(ρ/d)^m, α = αmax(1 − ρ/d),
@@ -18,9 +31,8 @@ export function cpmlCoefficients(depth: number, absorber: Absorber, spacing: num
   const d = absorber.cells * spacing;
   const m = absorber.order;
   const eps = EPS0 * epsR;
-  const eta = ETA0 / Math.sqrt(epsR);
   const x = Math.min(Math.max(depth / d, 0), 1);
-  const sigmaMax = (absorber.sigmaScale * 0.8 * (m + 1)) / (eta * spacing);
+  const sigmaMax = cpmlSigmaMax(absorber, spacing, epsR);
   const grade = x ** m;
   const sigma = sigmaMax * grade;
   const kappa = 1 + (absorber.kappaMax - 1) * grade;

@@ -18,6 +18,8 @@ import type { ParseResult, Problem, Scenario } from './types.ts';
 export const FILE_PATH = '(file)';
 /** Path used for problems with the value as a whole (not an object, unreadable). */
 export const SCENARIO_PATH = '(scenario)';
+/** Largest scenario file read, bytes: a scenario is a few kilobytes of JSON (the CLI and the page refuse bigger files). */
+export const SCENARIO_FILE_CAP_BYTES = 5 * 1024 * 1024;
 /** At most this many problems are listed; a garbage file should not flood the screen. */
 export const MAX_PROBLEMS = 100;
 

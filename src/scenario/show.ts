@@ -2,6 +2,7 @@
  * How numbers and values are written inside validation messages. A value the person typed
  * is echoed as typed (String(x)); a value we computed is rounded so the message stays short.
  */
+import { formatBytes } from './units.ts';
 
 /**
  * Describe any value for a message: numbers and booleans as written, text quoted and cut to
@@ -69,7 +70,5 @@ export function floorTo4Decimals(x: number): number {
  * showBytes(2 * 1024 ** 3); // '2 GiB (2147483648 bytes)'
  */
 export function showBytes(bytes: number): string {
-  const gib = bytes / 1024 ** 3;
-  const unit = gib >= 1 ? `${approx(gib)} GiB` : `${approx(bytes / 1024 ** 2)} MiB`;
-  return `${unit} (${Number.isSafeInteger(bytes) ? String(bytes) : approx(bytes)} bytes)`;
+  return `${formatBytes(bytes, 4, true)} (${Number.isSafeInteger(bytes) ? String(bytes) : approx(bytes)} bytes)`;
 }

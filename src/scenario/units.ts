@@ -29,11 +29,22 @@ export function formatSig(value: number, digits = 3): string {
   return Number(value.toPrecision(digits)).toString().replace('-', '−');
 }
 
-/** Bytes in binary units: "12.5 MiB". */
-export function formatBytes(bytes: number): string {
+/**
+ * Bytes in binary units with `digits` significant figures, the unit chosen so the number
+ * stays below 1000 ("998 KiB", then "0.98 MiB" rather than "1.02e+3 KiB"); `trim` drops
+ * trailing zeros ("2 GiB" rather than "2.00 GiB"). The one byte formatter of the project.
+ *
+ * @example
+ * formatBytes(1536); // "1.50 KiB"
+ * formatBytes(1046528); // "0.998 MiB"
+ */
+export function formatBytes(bytes: number, digits = 3, trim = false): string {
+  if (!Number.isFinite(bytes)) return formatSig(bytes);
   const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB'];
   let v = bytes;
   let u = 0;
-  while (v >= 1024 && u < units.length - 1) { v /= 1024; u++; }
-  return `${u === 0 ? v : v.toPrecision(3)} ${units[u]}`;
+  while (Math.abs(v) >= 1000 && u < units.length - 1) { v /= 1024; u++; }
+  if (u === 0) return `${v} B`;
+  const text = v.toPrecision(digits);
+  return `${trim ? String(Number(text)) : text} ${units[u]}`;
 }

@@ -1,4 +1,5 @@
-import { EPS0, ETA0 } from '../scenario/constants.ts';
+import { cpmlSigmaMax } from '../engine/cpml-profile.ts';
+import { EPS0 } from '../scenario/constants.ts';
 import { waveSpeed } from '../scenario/layout.ts';
 import type { Absorber } from '../scenario/types.ts';
 
@@ -18,10 +19,9 @@ import type { Absorber } from '../scenario/types.ts';
 export function theoreticalReflectionDb(absorber: Absorber, spacing: number, epsR: number): number {
   if (absorber.cells <= 0) return 0;
   const m = absorber.order;
-  const eta = ETA0 / Math.sqrt(epsR);
   const eps = EPS0 * epsR;
   const c = waveSpeed(epsR);
-  const sigmaMax = (absorber.sigmaScale * 0.8 * (m + 1)) / (eta * spacing);
+  const sigmaMax = cpmlSigmaMax(absorber, spacing, epsR);
   const d = absorber.cells * spacing;
   const lnR = (-2 * sigmaMax * d) / ((m + 1) * eps * c);
   return (20 * lnR) / Math.LN10;

@@ -31,5 +31,10 @@ describe('SI formatting', () => {
     expect(formatBytes(512)).toBe('512 B');
     expect(formatBytes(1536)).toBe('1.50 KiB');
     expect(formatBytes(2 * 1024 ** 3)).toBe('2.00 GiB');
+    // a count just under 1 MiB stays below 1000 of its unit, never "1.02e+3 KiB" (common practice, no source)
+    expect(formatBytes(1046528)).toBe('0.998 MiB');
+    expect(formatBytes(1000 * 1024 - 1)).toBe('0.977 MiB');
+    expect(formatBytes(999)).toBe('999 B');
+    expect(formatBytes(2 * 1024 ** 3, 4, true)).toBe('2 GiB');
   });
 });
