@@ -43,7 +43,8 @@ export function formatBytes(bytes: number, digits = 3, trim = false): string {
   const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB'];
   let v = bytes;
   let u = 0;
-  while (Math.abs(v) >= 1000 && u < units.length - 1) { v /= 1024; u++; }
+  // decide on the rounded figure, so 999.999 KiB becomes 0.977 MiB rather than "1.00e+3 KiB"
+  while (Math.abs(Number(v.toPrecision(digits))) >= 1000 && u < units.length - 1) { v /= 1024; u++; }
   if (u === 0) return `${v} B`;
   const text = v.toPrecision(digits);
   return `${trim ? String(Number(text)) : text} ${units[u]}`;
