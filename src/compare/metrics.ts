@@ -50,7 +50,7 @@ export function maxDifferenceAndPeak(a: ArrayLike<number>, b: ArrayLike<number>)
 /**
  * The scheme's transfer function at a point, Ez(f)/I(f): the running DFT of Ez over the DFT
  * of the injected current with its half-step timing, so no half-step phase bias remains
- * (DESIGN.md, spectra.csv). V/m per A; NaN when the current has no content at f.
+ * (docs/outputs.md, spectra.csv). V/m per A; NaN when the current has no content at f.
  *
  * @example
  * schemeTransfer([2, 0], [0, 1]); // [0, -2]

@@ -14,7 +14,7 @@ import { instantiateEngine, loadEngineModule } from './wasm.ts';
  * processors handle slowly and WebAssembly cannot flush to zero.
  */
 
-/** One grid size. The first six fields are the `bench --json` contract (DESIGN.md). */
+/** One grid size. The first six fields are the `bench --json` contract (docs/outputs.md). */
 export interface BenchResult {
   nx: number;
   ny: number;

@@ -1,5 +1,5 @@
 /**
- * Wraps an angle in degrees into the half-open interval (−180, 180], the range DESIGN.md
+ * Wraps an angle in degrees into the half-open interval (−180, 180], the range docs/physics.md
  * fixes for every reported phase error. 180 stays 180 and −180 becomes 180. NaN and
  * ±Infinity give NaN (an infinite angle has no direction). The reduction uses the exact
  * floating-point remainder, so whole turns are removed without rounding error.

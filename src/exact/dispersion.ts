@@ -139,7 +139,7 @@ export function numericalWavenumber(f: number, theta: number, dx: number, dy: nu
 
 /**
  * {@link numericalWavenumber} that returns NaN instead of throwing, for tables in which an
- * undefined value is written as NaN (DESIGN.md): NaN above the cutoff and for any argument
+ * undefined value is written as NaN (docs/physics.md): NaN above the cutoff and for any argument
  * out of range (including NaN and ±Infinity). Source: as numericalWavenumber.
  *
  * @param f - frequency, Hz; theta - rad; dx, dy - m; dt - s; c - m/s
@@ -178,7 +178,7 @@ export function phaseVelocityError(f: number, theta: number, dx: number, dy: num
 
 /**
  * Phase error the dispersion relation predicts after a wave travels ρ along θ:
- * −(k̃ − k)·ρ in degrees, the sign DESIGN.md uses for arg(FDTD) − arg(exact) with the
+ * −(k̃ − k)·ρ in degrees, the sign docs/physics.md uses for arg(FDTD) − arg(exact) with the
  * e^{+jωt} convention (negative: the grid lags). Not wrapped; see
  * {@link predictedPhaseErrorWrappedDeg}. Source: Taflove & Hagness, Computational
  * Electrodynamics, 3rd ed., ch. 4. f = 0 gives 0; NaN above the cutoff, for ρ < 0 and for

@@ -180,7 +180,7 @@ function validGeometry(rho: number, epsR: number): boolean {
  * this file). Accuracy: about 1e-12 of the peak field. Before the wavefront,
  * t ≤ ρ/c + t0 − extent, the result is exactly 0 (whatever the amplitude). That window may
  * start before t = 0; the field is then that of the whole pulse, which the scenario
- * defaults make negligible before t = 0 (DESIGN.md).
+ * defaults make negligible before t = 0 (docs/physics.md).
  *
  * Edge cases: ρ ≤ 0 (ρ = 0 is the singular wire itself), εr ≤ 0, a non-finite ρ or εr, a ρ
  * so small that ρ/c underflows to 0, or t = NaN give NaN; t = −Infinity gives 0, and so
@@ -212,7 +212,7 @@ export function transientField(
 
 /**
  * Exact transient Ez at one point sampled at t = n·dt, n = 0..samples − 1, the sampling of
- * the grid's Ez (DESIGN.md). Same physics, quadrature and edge cases as
+ * the grid's Ez (docs/physics.md). Same physics, quadrature and edge cases as
  * {@link transientField} (Morse & Feshbach, Methods of Theoretical Physics, 1953, ch. 7);
  * the panel sizes, and I' at the nodes used in the wake, are worked out once per series.
  *

@@ -1,5 +1,5 @@
 /**
- * Writing results as CSV and JSON (DESIGN.md "Outputs of a run"). Numbers are written as
+ * Writing results as CSV and JSON (docs/outputs.md "Files of a run"). Numbers are written as
  * the shortest decimal that reads back to the same double; CSV follows RFC 4180 quoting;
  * text cells that a spreadsheet would run as a formula get a leading apostrophe.
  */
@@ -106,7 +106,7 @@ export function parseCsv(text: string): string[][] {
 
 /**
  * JSON for output files and `--json`: 2-space indent, ending with a newline. NaN and
- * ±Infinity become null (DESIGN.md: undefined values are null in JSON), as do undefined
+ * ±Infinity become null (docs/outputs.md: undefined values are null in JSON), as do undefined
  * object fields, so a missing result shows as `null` rather than vanishing; typed arrays
  * are written as plain arrays.
  *

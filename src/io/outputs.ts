@@ -1,7 +1,7 @@
 import type { RunResults, SpectrumPoint } from '../compare/results.ts';
 import { jsonForOutput, toCsv } from './csv.ts';
 
-/** The four files of a run, by file name, as text (DESIGN.md "Outputs of a run"). */
+/** The four files of a run, by file name, as text (docs/outputs.md "Files of a run"). */
 export type RunFiles = Record<'timeseries.csv' | 'spectra.csv' | 'lines.csv' | 'summary.json', string>;
 
 /** `timeseries.csv`: t_s, then <probe>.fdtd and <probe>.exact per probe; one row per sample n = 0..steps. */

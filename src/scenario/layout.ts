@@ -20,7 +20,7 @@ export interface Layout {
 
 /**
  * Index of the Ez node nearest to coordinate `x` on a grid of spacing `d`:
- * round(x/d) with halves rounded up (DESIGN.md, "Snapping").
+ * round(x/d) with halves rounded up (docs/scenario.md "Rules between fields").
  *
  * @example
  * snapIndex(0.15, 0.001); // 150
@@ -50,7 +50,7 @@ function node(i: number, j: number, dx: number, dy: number): Node {
 
 /**
  * Nodes of a probe line from (x0,y0) to (x1,y1): max(|Δi|, |Δj|) + 1 points evenly along
- * the segment, each snapped to its nearest node, repeats dropped (DESIGN.md, lines.csv).
+ * the segment, each snapped to its nearest node, repeats dropped (docs/outputs.md, lines.csv).
  */
 export function lineNodes(x0: number, y0: number, x1: number, y1: number, dx: number, dy: number): Node[] {
   const di = snapIndex(x1, dx) - snapIndex(x0, dx);

@@ -1,5 +1,5 @@
 /**
- * Rules that tie scenario fields together (DESIGN.md "Ranges"): the grid must hold the
+ * Rules that tie scenario fields together (docs/scenario.md "Format 1"): the grid must hold the
  * absorber and an interior, the Courant number must be within the stability limit, the
  * waveform must carry the fields its kind needs and no others, names must be unique,
  * frequencies must be below 1/(2·dt), everything placed must sit in the interior, and the

@@ -1,5 +1,5 @@
 /**
- * Zod schemas for the scenario file, format 1 (DESIGN.md "Scenario file, format 1").
+ * Zod schemas for the scenario file, format 1 (docs/scenario.md).
  * They check each field on its own: type, range, whole numbers, allowed names, unknown
  * keys. Rules that tie fields together (stability limit, absorber against grid size,
  * positions inside the interior, waveform fields per kind, unique names, frequencies below

@@ -70,7 +70,7 @@ describe('the demo scenario in the page', () => {
     for (const probe of demoScenario().probes) {
       const cell = page.locator(`gg-summary-table tr[data-probe="${probe.name}"] td.relerr`);
       const text = (await cell.textContent())?.trim() ?? '';
-      // relErrMax is a small positive number for a resolved demo (DESIGN.md summary.json)
+      // relErrMax is a small positive number for a resolved demo (docs/outputs.md summary.json)
       expect(Number(text), `relErrMax of ${probe.name}: "${text}"`).toBeGreaterThan(0); // common practice, no source
       expect(Number(text)).toBeLessThan(0.2); // common practice, no source
     }
@@ -100,8 +100,8 @@ describe('the demo scenario in the page', () => {
     expect(download.suggestedFilename()).toBe('timeseries.csv'); // common practice, no source
     const pageCsv = parseCsv(readFileSync(await download.path(), 'utf8'));
     const cliCsv = parseCsv(readFileSync(join(cliDir, 'timeseries.csv'), 'utf8'));
-    expect(pageCsv.header).toEqual(cliCsv.header); // DESIGN.md "Outputs of a run", timeseries.csv header
-    expect(pageCsv.rows.length).toBe(cliCsv.rows.length); // DESIGN.md: one row per sample n = 0..steps
+    expect(pageCsv.header).toEqual(cliCsv.header); // docs/outputs.md "Files of a run", timeseries.csv header
+    expect(pageCsv.rows.length).toBe(cliCsv.rows.length); // docs/outputs.md: one row per sample n = 0..steps
     for (let c = 0; c < cliCsv.header.length; c++) {
       let peak = 0;
       for (const row of cliCsv.rows) peak = Math.max(peak, Math.abs(row[c]));
@@ -122,7 +122,7 @@ describe('the demo scenario in the page', () => {
       const cli = readFileSync(join(cliDir, name), 'utf8');
       const a = text.trimEnd().split(/\r?\n/);
       const b = cli.trimEnd().split(/\r?\n/);
-      expect(a[0]).toBe(b[0]); // same header (DESIGN.md "Outputs of a run")
+      expect(a[0]).toBe(b[0]); // same header (docs/outputs.md "Files of a run")
       expect(a.length).toBe(b.length); // common practice, no source
       for (let r = 1; r < b.length; r++) {
         const x = a[r].split(',');
@@ -142,7 +142,7 @@ describe('the demo scenario in the page', () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.locator('button[data-file="summary.json"]').click()]);
     const pageSummary = JSON.parse(readFileSync(await download.path(), 'utf8'));
     const cliSummary = JSON.parse(readFileSync(join(cliDir, 'summary.json'), 'utf8'));
-    expect(Object.keys(pageSummary).sort()).toEqual(Object.keys(cliSummary).sort()); // DESIGN.md summary.json fields
+    expect(Object.keys(pageSummary).sort()).toEqual(Object.keys(cliSummary).sort()); // docs/outputs.md summary.json fields
     expect(pageSummary.steps).toBe(cliSummary.steps); // common practice, no source
     expect(pageSummary.dt_s).toBe(cliSummary.dt_s); // common practice, no source
     pageSummary.probes.forEach((p: { name: string; relErrMax: number }, k: number) => {

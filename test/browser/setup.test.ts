@@ -57,7 +57,7 @@ describe('an invalid entry', () => {
     const expected = validateScenario(bad);
     if (expected.ok) throw new Error('Courant 0.9 should be invalid for square cells'); // 2D limit 1/√2
     const message = expected.problems.find((p) => p.path === 'grid.courant')?.message as string;
-    expect(message).toBeTruthy(); // DESIGN.md: 2D stability limit 1/√2 for square cells
+    expect(message).toBeTruthy(); // docs/physics.md: 2D stability limit 1/√2 for square cells
     await expect.poll(() => page.locator('#f-grid-courant-problem').textContent()).toBe(message); // common practice, no source
     expect(await page.locator('#f-grid-courant').getAttribute('aria-invalid')).toBe('true'); // common practice, no source
     expect(await run.isDisabled()).toBe(true); // common practice, no source

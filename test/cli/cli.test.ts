@@ -12,8 +12,8 @@ const gridgauge = (...args: string[]) => {
 const tmp = () => mkdtempSync(join(tmpdir(), 'gridgauge-'));
 
 describe('gridgauge run', () => {
-  it('writes the four files with the DESIGN.md columns for the demo', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+  it('writes the four files with the documented columns for the demo', () => {
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const out = tmp();
     const r = gridgauge('run', 'examples/demo.json', '--out', out);
     expect(r.code).toBe(0);
@@ -40,7 +40,7 @@ describe('gridgauge run', () => {
   }, 60_000);
 
   it('--json prints summary.json on stdout and nothing else', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const r = gridgauge('run', 'examples/demo.json', '--json');
     expect(r.code).toBe(0);
     const parsed = JSON.parse(r.stdout);
@@ -49,7 +49,7 @@ describe('gridgauge run', () => {
   }, 60_000);
 
   it('refuses invalid input with exit 2, one message per problem, no stack trace', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const dir = tmp();
     const bad = join(dir, 'bad.json');
     const demo = JSON.parse(readFileSync('examples/demo.json', 'utf8'));
@@ -64,7 +64,7 @@ describe('gridgauge run', () => {
   });
 
   it('reports a missing file and malformed JSON with exit 2', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     expect(gridgauge('check', 'no/such/file.json').code).toBe(2);
     const dir = tmp();
     const broken = join(dir, 'broken.json');
@@ -76,7 +76,7 @@ describe('gridgauge run', () => {
   });
 
   it('rejects unknown commands and options with exit 2', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     expect(gridgauge('fly').code).toBe(2);
     const r = gridgauge('run', 'examples/demo.json', '--speed=3');
     expect(r.code).toBe(2);
@@ -86,18 +86,18 @@ describe('gridgauge run', () => {
 
 describe('gridgauge check', () => {
   it('prints derived quantities, and JSON with --json', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const r = gridgauge('check', 'examples/demo.json', '--json');
     expect(r.code).toBe(0);
     const d = JSON.parse(r.stdout).derived;
-    // 1 mm cells, S = 0.5: dt = 0.5·1e-3/c0 (DESIGN.md definition of S)
+    // 1 mm cells, S = 0.5: dt = 0.5·1e-3/c0 (docs/physics.md definition of S)
     expect(d.dt_s).toBeCloseTo(1.6678204759907604e-12, 24);
     expect(d.cellsPerWavelengthAtF0).toBeCloseTo(29.98, 2);
     expect(gridgauge('check', 'examples/demo.json').stdout).toMatch(/cellsPerWavelengthAtBandEdge/);
   });
 
   it('--help lists every verb', () => {
-    // contract: ../shared/DESIGN.md, "Outputs of a run" and "Command line" (no outside source applies)
+    // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const r = gridgauge('--help');
     expect(r.code).toBe(0);
     for (const verb of ['run', 'check', 'absorber-study', 'resolution-study', 'bench']) expect(r.stdout).toContain(`gridgauge ${verb}`);

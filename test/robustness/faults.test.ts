@@ -81,7 +81,7 @@ describe('nothing lost', () => {
   });
 
   it('a file of a newer format version is refused as newer, not guessed at', () => {
-    // contract: ../shared/DESIGN.md, "Scenario file, format 1" (version above 1 is an error)
+    // contract: docs/scenario.md (version above 1 is an error)
     const r = parseScenarioText(JSON.stringify({ ...demoScenario(), version: 2 }));
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.problems[0].message).toMatch(/newer/);
@@ -114,7 +114,7 @@ describe('limits and interruption', () => {
   }, 60_000);
 
   it('a grid above the memory cap is refused before anything is allocated, with the figure', () => {
-    // contract: ../shared/DESIGN.md, "Ranges" (memory estimated first, error names grid.nx and the bytes)
+    // contract: docs/scenario.md "Format 1" (memory estimated first, error names grid.nx and the bytes)
     const dir = mkdtempSync(join(tmpdir(), 'gridgauge-cap-'));
     const s = { ...demoScenario(), grid: { ...demoScenario().grid, nx: 20_000, ny: 20_000 } };
     writeFileSync(join(dir, 'huge.json'), JSON.stringify(s));

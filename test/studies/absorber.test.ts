@@ -196,7 +196,7 @@ describe('absorber study rules', () => {
   });
 
   it('refuses a reference grid above the memory cap, naming steps', () => {
-    // DESIGN.md: memory is estimated first and capped; common practice, no source
+    // docs/outputs.md: memory is estimated first and capped; common practice, no source
     const long = makeScenario({ steps: 40_000 });
     expect(() => planAbsorberStudy(long)).toThrow(/^steps: .* cap; study fewer steps/);
     expect(() => planAbsorberStudy(long, { steps: 2000 })).not.toThrow();

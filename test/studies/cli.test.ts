@@ -8,7 +8,7 @@ import { parseCsv } from '../../src/io/csv.ts';
 import { validateScenario } from '../../src/scenario/parse.ts';
 import { makeScenario } from '../fixtures/scenarios.ts';
 
-// DESIGN.md "Command line" and "Outputs of studies" are the contract checked here.
+// README "Command line" and docs/outputs.md "Study files" are the contract checked here.
 const dir = mkdtempSync(join(tmpdir(), 'gridgauge-studies-'));
 const file = join(dir, 'small.json');
 writeFileSync(file, JSON.stringify(makeScenario({
@@ -48,8 +48,8 @@ async function cli(...args: string[]): Promise<{ code: number; stdout: string; s
 
 describe('gridgauge absorber-study', () => {
   it('through bin/gridgauge.js: --target=-70 --json --out DIR prints only the JSON and writes the contract files', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Command line" (--json: the result and nothing else on stdout) and "Outputs of studies"
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // README "Command line" (--json: the result and nothing else on stdout) and docs/outputs.md "Study files"
     const out = join(dir, 'absorber');
     const r = await spawnCli('absorber-study', file, '--target=-70', '--json', '--workers', '2', '--out', out);
     expect(r.code).toBe(0);
@@ -71,8 +71,8 @@ describe('gridgauge absorber-study', () => {
   });
 
   it('--target -70 (value as the next argument) prints the table and the recommendation', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Command line": both --target -70 and --target=-70 work
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // README "Command line": both --target -70 and --target=-70 work
     const r = await cli('absorber-study', file, '--target', '-70');
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^recommended: .* \(target -70 dB/m);
@@ -80,8 +80,8 @@ describe('gridgauge absorber-study', () => {
   });
 
   it('a target nothing meets exits 0 with recommended null and says so', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Command line": such a study exits 0 with recommended: null and says so
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // README "Command line": such a study exits 0 with recommended: null and says so
     const r = await cli('absorber-study', file, '--target', '-400', '--json');
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout).recommended).toBeNull();
@@ -89,8 +89,8 @@ describe('gridgauge absorber-study', () => {
   });
 
   it('invalid input exits 2: a positive target, a missing file, a bad worker count', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Command line": exit 2 on invalid input
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // README "Command line": exit 2 on invalid input
     const runs = [
       await cli('absorber-study', file, '--target', '5'),
       await cli('absorber-study', join(dir, 'missing.json')),
@@ -101,7 +101,7 @@ describe('gridgauge absorber-study', () => {
   });
 
   it('--emit DIR writes valid scenario files and a manifest without running', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
     // issue text: a study is a list of independent scenarios for any batch scheduler
     const emit = join(dir, 'emit-absorber');
     const r = await cli('absorber-study', file, '--emit', emit);
@@ -121,8 +121,8 @@ describe('gridgauge absorber-study', () => {
 
 describe('gridgauge resolution-study', () => {
   it('--size 4 --budget 20 --json prints the JSON with the contract keys; --out writes the CSV header', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Outputs of studies"
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // docs/outputs.md "Study files"
     const out = join(dir, 'resolution');
     const r = await cli('resolution-study', file, '--size', '4', '--budget=20', '--min-cells', '10', '--max-cells', '16', '--json', '--out', out);
     expect(r.code).toBe(0);
@@ -138,8 +138,8 @@ describe('gridgauge resolution-study', () => {
   });
 
   it('a missing, zero or negative budget or size exits 2', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // issue text and DESIGN.md "Command line": exit 2 on invalid input
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // issue text and README "Command line": exit 2 on invalid input
     const runs = [
       await cli('resolution-study', file, '--size', '12'),
       await cli('resolution-study', file, '--budget', '5'),
@@ -154,15 +154,15 @@ describe('gridgauge resolution-study', () => {
   });
 
   it('a budget nothing meets exits 0 with recommended null', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
-    // DESIGN.md "Command line"
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
+    // README "Command line"
     const r = await cli('resolution-study', file, '--size', '100', '--budget', '0.01', '--min-cells', '8', '--max-cells', '8', '--json');
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout).recommended).toBeNull();
   });
 
   it('--emit DIR writes one valid measurement scenario per resolution', async () => {
-    // contract: ../shared/DESIGN.md, "Command line" and "Outputs of studies" (no outside source applies)
+    // contract: README "Command line" and docs/outputs.md "Study files" (no outside source applies)
     // issue text: studies can be written out as scenario files
     const emit = join(dir, 'emit-resolution');
     expect((await cli('resolution-study', file, '--size', '12', '--budget', '5', '--emit', emit)).code).toBe(0);

@@ -107,7 +107,7 @@ describe('resolution study on cells twice as tall as wide', () => {
 
 describe('resolution study rules', () => {
   it('measurement runs hold the Courant number and dy/dx, count cells along x at the highest frequency', () => {
-    // DESIGN.md "Outputs of studies": common practice, no source
+    // docs/outputs.md "Study files": common practice, no source
     const s = makeScenario({ frequencies: [3e9, 1.2e10, 6e9], grid: { dx: 1e-3, dy: 1.5e-3, courant: 0.4 } });
     expect(studyFrequency(s)).toBe(1.2e10);
     const m = measurementScenario(s, 20, 1.2e10);

@@ -14,7 +14,7 @@ describe('formatNumber', () => {
     expect(formatNumber(-1.5)).toBe('-1.5');
   });
   it('NaN, ±Infinity and −0', () => {
-    // DESIGN.md "Outputs of a run": undefined values are NaN in CSV; −0 is written "0" (our choice)
+    // docs/outputs.md "Files of a run": undefined values are NaN in CSV; −0 is written "0" (our choice)
     expect(formatNumber(NaN)).toBe('NaN');
     expect(formatNumber(Infinity)).toBe('Infinity');
     expect(formatNumber(-Infinity)).toBe('-Infinity');
@@ -119,7 +119,7 @@ describe('parseCsv', () => {
 
 describe('jsonForOutput', () => {
   it('writes NaN and ±Infinity as null, two-space indent, final newline', () => {
-    // DESIGN.md "Outputs of a run": undefined values are null in JSON
+    // docs/outputs.md "Files of a run": undefined values are null in JSON
     expect(jsonForOutput({ rho_m: NaN, a: [Infinity, -Infinity, 1], b: { c: 2 } }))
       .toBe('{\n  "rho_m": null,\n  "a": [\n    null,\n    null,\n    1\n  ],\n  "b": {\n    "c": 2\n  }\n}\n');
   });

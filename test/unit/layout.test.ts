@@ -4,7 +4,7 @@ import { lineNodes, snapIndex } from '../../src/scenario/layout.ts';
 
 describe('probe-line nodes', () => {
   it('run from the first snapped end to the last with distance from the first strictly growing, at any angle', () => {
-    // lines.csv rows are ordered by s_m (../shared/DESIGN.md, lines.csv); outputs rely on this order
+    // lines.csv rows are ordered by s_m (docs/outputs.md, lines.csv); outputs rely on this order
     fc.assert(fc.property(
       fc.double({ min: 0, max: 0.3, noNaN: true }), fc.double({ min: 0, max: 0.3, noNaN: true }),
       fc.double({ min: 0, max: 0.3, noNaN: true }), fc.double({ min: 0, max: 0.3, noNaN: true }),

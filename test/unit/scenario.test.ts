@@ -60,7 +60,7 @@ describe('a valid scenario', () => {
     const s = accepted(parseScenarioText(text));
     expect(s.medium.epsR).toBe(4);
     expect(s.source.amplitude).toBe(1);
-    expect(s.source.waveform).toEqual({ kind: 'ricker', f0: 5e9, t0: 2 / 5e9 }); // DESIGN.md: t0 = 2/f0 for ricker
+    expect(s.source.waveform).toEqual({ kind: 'ricker', f0: 5e9, t0: 2 / 5e9 }); // docs/scenario.md: t0 = 2/f0 for ricker
   });
 
   it('the demo runs long enough for the pulse to pass the farthest probe and line end', () => {
@@ -75,7 +75,7 @@ describe('a valid scenario', () => {
   });
 
   it('fills the documented defaults when sections are left out', () => {
-    // DESIGN.md "Scenario file, format 1": defaults for medium, absorber, amplitude, lists, waveform
+    // docs/scenario.md: defaults for medium, absorber, amplitude, lists, waveform
     const s = accepted(validateScenario({
       grid: { nx: 100, ny: 80, dx: 0.002, dy: 0.002, courant: 0.5 },
       source: { x: 0.1, y: 0.08, waveform: { kind: 'modulated-gaussian', f0: 2e9 } },
@@ -93,7 +93,7 @@ describe('a valid scenario', () => {
   });
 
   it('gaussian takes tau and defaults t0 = 5τ; a given t0 is kept', () => {
-    // DESIGN.md: t0 = 5τ for both Gaussian kinds
+    // docs/scenario.md: t0 = 5τ for both Gaussian kinds
     const s = demo();
     s.source.waveform = { kind: 'gaussian', tau: 2e-11 };
     expect(accepted(validateScenario(s)).source.waveform).toEqual({ kind: 'gaussian', tau: 2e-11, t0: 5 * 2e-11 });
@@ -124,7 +124,7 @@ describe('a valid scenario', () => {
   });
 
   it('accepts positions on the first and last interior node', () => {
-    // DESIGN.md: the interior is cells ≤ i ≤ nx−1−cells
+    // docs/scenario.md: the interior is cells ≤ i ≤ nx−1−cells
     const s = demo();
     s.probes[0] = { name: 'low', x: 0.0095, y: 0.0095 }; // rounds half up to node 10
     s.probes[1] = { name: 'high', x: 0.289, y: 0.289 };
@@ -133,12 +133,12 @@ describe('a valid scenario', () => {
 });
 
 describe('refused: grid', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('nx not a whole number', () => {
     expect(at(refused((s) => { s.grid.nx = 300.5; }), 'grid.nx')).toMatch(/300\.5 is not a whole number; use a whole number such as 30[01]/);
   });
   it('nx too small for the absorber', () => {
-    // DESIGN.md "Ranges": nx, ny ≥ 3 + 2·cells
+    // docs/scenario.md "Format 1": nx, ny ≥ 3 + 2·cells
     expect(at(refused((s) => { s.grid.nx = 22; }), 'grid.nx')).toBe('22 nodes are too few for 10 absorber cells on each side; nx must be at least 3 + 2·10 = 23, so use 23 or more, or fewer absorber cells');
   });
   it('ny too small for the absorber', () => {
@@ -184,7 +184,7 @@ describe('refused: grid', () => {
       .toMatch(/^0\.80007 is above the 2D stability limit 0\.8000[56]\d* for these cells; use 0\.8 or less$/);
   });
   it('courant above the limit for oblong cells', () => {
-    // limit 1/(min·√(1/dx² + 1/dy²)) = 1/√1.25 ≈ 0.8944 for dy = 2dx (DESIGN.md physics conventions)
+    // limit 1/(min·√(1/dx² + 1/dy²)) = 1/√1.25 ≈ 0.8944 for dy = 2dx (docs/physics.md)
     expect(at(refused((s) => { s.grid.dy = 0.002; s.grid.courant = 0.9; }), 'grid.courant'))
       .toBe('0.9 is above the 2D stability limit 0.8944 for these cells; use 0.8944 or less');
   });
@@ -197,7 +197,7 @@ describe('refused: grid', () => {
 });
 
 describe('refused: medium and absorber', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('epsR below 1', () => {
     expect(at(refused((s) => { s.medium.epsR = 0.5; }), 'medium.epsR')).toMatch(/^0\.5 is below 1, which no passive medium has; give the relative permittivity/);
   });
@@ -231,7 +231,7 @@ describe('refused: medium and absorber', () => {
 });
 
 describe('refused: source and waveform', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('amplitude zero', () => {
     expect(at(refused((s) => { s.source.amplitude = 0; }), 'source.amplitude')).toBe('is 0, which drives no field at all; use a non-zero current in amperes, e.g. 1');
   });
@@ -281,7 +281,7 @@ describe('refused: source and waveform', () => {
     expect(at(refused((s) => { s.source.x = NaN; }), 'source.x')).toMatch(/^NaN is not a finite number; give the x coordinate in metres/);
   });
   it('source in the absorber, with the allowed range in metres', () => {
-    // DESIGN.md: interior nodes 10..289 on a 300-node grid with 10 absorber cells
+    // docs/scenario.md: interior nodes 10..289 on a 300-node grid with 10 absorber cells
     expect(at(refused((s) => { s.source.x = 0.005; }), 'source.x'))
       .toBe('0.005 m lies in the absorber layer (nearest node i = 5); keep x between 0.01 m and 0.289 m, the interior nodes i = 10 to 289');
   });
@@ -292,7 +292,7 @@ describe('refused: source and waveform', () => {
 });
 
 describe('refused: probes and lines', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('probe outside the interior', () => {
     expect(at(refused((s) => { s.probes[2].y = 0.295; }), 'probes[2].y')).toMatch(/^0\.295 m lies in the absorber layer \(nearest node j = 295\); keep y between 0\.01 m and 0\.289 m/);
   });
@@ -333,7 +333,7 @@ describe('refused: probes and lines', () => {
 });
 
 describe('refused: frequencies and steps', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('a negative frequency', () => {
     expect(at(refused((s) => { s.frequencies[1] = -1; }), 'frequencies[1]')).toMatch(/^-1 is not above 0; give a frequency in Hz/);
   });
@@ -360,7 +360,7 @@ describe('refused: frequencies and steps', () => {
 });
 
 describe('refused: memory', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('a grid above the cap names grid.nx and grid.ny, the bytes and the cap', () => {
     const problems = refused((s) => { s.grid.nx = 30000; s.grid.ny = 30000; });
     const bytes = engineMemoryBytes({
@@ -382,7 +382,7 @@ describe('refused: memory', () => {
 });
 
 describe('refused: file level', () => {
-  // every case below checks a rule of the scenario contract: ../shared/DESIGN.md, "Ranges" (no outside source applies)
+  // every case below checks a rule of the scenario contract: docs/scenario.md "Format 1" (no outside source applies)
   it('version 2 is a newer format, and nothing else is judged', () => {
     const problems = refused((s) => { s.version = 2; s.grid.courant = 5; s.extra = true; });
     expect(problems).toEqual([{
@@ -489,7 +489,7 @@ describe('malformed JSON', () => {
 describe('derived quantities', () => {
   const d = deriveQuantities(demoScenario());
   it('time step, speed and stability margin', () => {
-    // dt = S·min(dx,dy)/c and the 1/√2 limit: DESIGN.md physics conventions (Taflove & Hagness §4.7)
+    // dt = S·min(dx,dy)/c and the 1/√2 limit: docs/physics.md (Taflove & Hagness §4.7)
     expect(d.dt_s).toBeCloseTo((0.5 * 0.001) / 299_792_458, 25);
     expect(d.c_m_per_s).toBe(299_792_458);
     expect(d.stabilityLimit).toBeCloseTo(Math.SQRT1_2, 15);
