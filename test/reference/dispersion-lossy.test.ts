@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import roots from '../fixtures/dispersion-roots.json';
 import { C0 } from '../../src/scenario/constants.ts';
-import type { Medium, Pole } from '../../src/scenario/types.ts';
+import type { Medium } from '../../src/scenario/types.ts';
 import { cAbs, cLog, cMul, cSqrt, cSub, type Complex } from '../../src/exact/complex.ts';
 import { discretePermittivity, relativePermittivity, wavenumber } from '../../src/exact/medium.ts';
 import {
