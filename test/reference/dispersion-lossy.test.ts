@@ -27,7 +27,7 @@ const losslessReal = roots.losslessReal as { f: number; theta: number; dx: numbe
 
 const distance = (a: Complex, b: Complex) => cAbs(cSub(a, b));
 
-/** arcsin z = −j·ln(jz + √(1 − z²)), principal branches. */
+/** arcsin z = −j·ln(jz + √(1 − z²)), principal branches (DLMF 4.23.19, equation number from memory). */
 function asin(z: Complex): Complex {
   const root = cSqrt(cSub([1, 0], cMul(z, z)));
   const [lr, li] = cLog([root[0] - z[1], root[1] + z[0]]);
@@ -85,17 +85,19 @@ describe('lossy 2D Yee dispersion: reference roots', () => {
 
   it('predicts phase and magnitude errors from the reference roots', () => {
     for (const c of lossy) {
-      const rho = (3 * 2 * Math.PI) / cAbs(c.k);
+      const rho = (3 * 2 * Math.PI) / cAbs(c.k); // three wavelengths
+      // both k and k̃ agree with the fixture to 1e-14 relative; allow 1e-13 of |k|·ρ
+      const slack = 1e-13 * cAbs(c.kTilde) * rho;
       const e = predictedErrors(c.medium, c.f, c.theta, rho, c.dx, c.dy, c.dt);
       const magDb = 20 * Math.LOG10E * (c.kTilde[1] - c.k[1]) * rho;
-      expect(Math.abs(e.magDb - magDb)).toBeLessThan(1e-9 * (1 + Math.abs(magDb)) + 1e-12 * cAbs(c.k) * rho * 8.7); // fixture: mpmath roots
+      expect(Math.abs(e.magDb - magDb)).toBeLessThan(20 * Math.LOG10E * slack); // fixture: mpmath roots
       if (c.name.includes('evanescent')) {
         expect(e.evanescent).toBe(true); // Re εr < 0 below the plasma frequency (Drude model)
         expect(e.phaseDeg).toBeNaN(); // documented
       } else {
         const phaseDeg = (-(c.kTilde[0] - c.k[0]) * rho * 180) / Math.PI;
         expect(e.evanescent).toBe(false);
-        expect(Math.abs(e.phaseDeg - phaseDeg)).toBeLessThan(1e-12 * cAbs(c.k) * rho * 60); // fixture: mpmath roots
+        expect(Math.abs(e.phaseDeg - phaseDeg)).toBeLessThan((180 / Math.PI) * slack); // fixture: mpmath roots
       }
     }
   });
@@ -113,6 +115,9 @@ describe('lossy 2D Yee dispersion: reference roots', () => {
 
 describe('lossy 2D Yee dispersion: closed form and limits', () => {
   it('matches k̃ = (2/Δ)·asin((Δ/2)·√T) along the axes for every fixture medium', () => {
+    // Along θ = 0 the y term vanishes: (2/dx)²·sin²(k̃·dx/2) = T, so sin(k̃·dx/2) = ±(dx/2)·√T.
+    // With √T on its Im ≤ 0 branch and the principal arcsin (which keeps the sign of Im for
+    // |Re z| < 1), the + sign gives Im k̃ ≤ 0, the physical root; θ = π/2 is the same with dy.
     const seen = new Set<string>();
     for (const c of lossy) {
       if (seen.has(c.name)) continue;
