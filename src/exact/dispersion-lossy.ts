@@ -124,8 +124,8 @@ export function solveLossyDispersion(
   const scale = (Omega * Omega) / (C0 * C0);
   const tr = eps[0] * scale;
   const ti = eps[1] * scale;
-  // The long-wave root of the grid's own ε̃r, not the medium's k: just below a plasma
-  // frequency Re εr and Re ε̃r can differ in sign, and from a real start Newton stays real.
+  // The long-wave root of the grid's own ε̃r, not the medium's k: near a plasma frequency
+  // Re εr and Re ε̃r can differ in sign, and from a real start Newton stays real.
   const start = cScale(refractiveIndex(eps), Omega / C0);
   const cx = Math.abs(Math.cos(theta));
   const sy = Math.abs(Math.sin(theta));
