@@ -118,6 +118,9 @@ export async function studyCommand(d: AnyStudyDefinition, args: ParsedArgs): Pro
   }
 
   const pool = createNodePool(workers);
+  const planned = plan as { candidates: unknown[]; shared: unknown[] };
+  const runs = planned.candidates.length + planned.shared.length;
+  note(`${d.id} study: ${runs} runs: ${planned.candidates.length} candidates${planned.shared.length && d.sharedRuns ? ` and ${d.sharedRuns}` : ''}`);
   let run: { result: unknown; interrupted: boolean };
   try {
     run = await withProgress(`${d.id} study`, (signal, onProgress) => runStudy(d, plan, pool, { signal, onProgress }));

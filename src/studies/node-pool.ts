@@ -1,12 +1,13 @@
 /**
  * The study pool in Node: one worker_threads worker per hardware thread by default.
  *
- * Starting a worker through the tsx loader costs about 0.4 s of CPU per worker (the loader
- * thread and the transform of every module), which a short study on two cores feels. So
- * the worker's module graph is bundled once per process with esbuild (a dependency of its own)
- * into one CommonJS script that each worker evaluates directly, and the engine is compiled
- * once here and handed to every worker. If esbuild is not available, workers fall back to
- * registering tsx themselves (node-worker-boot.mjs).
+ * The installed command (build/cli/gridgauge.mjs, bundled at build time by
+ * scripts/build-cli.mjs) starts each worker from the worker bundled beside it,
+ * build/cli/study-worker.cjs: no TypeScript loader at run time. Run from the TypeScript
+ * sources (tests, development), the worker's module graph is bundled once per process with
+ * esbuild, or when esbuild is missing each worker registers tsx itself
+ * (node-worker-boot.mjs); a worker through tsx costs about 0.4 s of CPU to start. The
+ * engine is compiled once here and handed to every worker.
  */
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
@@ -14,12 +15,16 @@ import { Worker } from 'node:worker_threads';
 import { loadEngineModule } from '../engine/wasm.ts';
 import { StudyPool, type WorkerFactory, type WorkerHandlers, type WorkerPort } from './pool.ts';
 
+const bundledWorkerUrl = new URL('../../build/cli/study-worker.cjs', import.meta.url);
 const bootUrl = new URL('./node-worker-boot.mjs', import.meta.url);
 const entryUrl = new URL('./node-worker.ts', import.meta.url);
 const wasmLoaderUrl = new URL('../engine/wasm.ts', import.meta.url);
 
-/** How a worker is started: bundled script text, or the tsx bootstrap file. */
-type WorkerSource = { kind: 'bundle'; code: string } | { kind: 'tsx' };
+/** How a worker is started: the worker bundled at build time, bundled script text, or the tsx bootstrap file. */
+type WorkerSource = { kind: 'built' } | { kind: 'bundle'; code: string } | { kind: 'tsx' };
+
+/** Set by the build of the command line (scripts/build-cli.mjs). */
+const bundled = (globalThis as { GRIDGAUGE_BUNDLED?: boolean }).GRIDGAUGE_BUNDLED === true;
 
 let source: Promise<WorkerSource> | undefined;
 
@@ -50,7 +55,8 @@ async function bundleWorker(): Promise<WorkerSource> {
  * through tsx with `'tsx'`. An unexpected exit of a worker counts as its failure.
  */
 export function makeNodeWorkerFactory(mode: 'bundle' | 'tsx' = 'bundle'): WorkerFactory {
-  return (handlers) => startWorker(mode === 'tsx' ? Promise.resolve({ kind: 'tsx' }) : (source ??= bundleWorker()), handlers);
+  if (mode === 'tsx') return (handlers) => startWorker(Promise.resolve({ kind: 'tsx' }), handlers);
+  return (handlers) => startWorker(bundled ? Promise.resolve({ kind: 'built' }) : (source ??= bundleWorker()), handlers);
 }
 
 export const nodeWorkerFactory: WorkerFactory = makeNodeWorkerFactory();
@@ -60,9 +66,9 @@ function startWorker(from: Promise<WorkerSource>, handlers: WorkerHandlers): Wor
   let worker: Worker | undefined;
   Promise.all([from, loadEngineModule()]).then(([from, module]) => {
     if (stopping) return;
-    worker = from.kind === 'bundle'
-      ? new Worker(from.code, { eval: true, workerData: { module } })
-      : new Worker(bootUrl, { workerData: { entry: entryUrl.href, module } });
+    worker = from.kind === 'built' ? new Worker(bundledWorkerUrl, { workerData: { module } })
+      : from.kind === 'bundle' ? new Worker(from.code, { eval: true, workerData: { module } })
+        : new Worker(bootUrl, { workerData: { entry: entryUrl.href, module } });
     worker.on('message', handlers.message);
     worker.on('error', handlers.error);
     worker.on('exit', (code) => {
