@@ -5,6 +5,7 @@ import { jsonForOutput } from '../io/csv.ts';
 import { runFiles } from '../io/outputs.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
+import { energyLeftWarning, scenarioWarnings, type Warning } from '../scenario/warnings.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
@@ -66,8 +67,8 @@ function printProbeTable(r: RunResults, out: (line: string) => void): void {
   if (r.probes.length === 0) out('no probes in this scenario: add "probes" to compare FDTD with the exact field');
   for (const p of r.probes) {
     out(`probe ${JSON.stringify(p.name)} at (${formatSI(p.x_m, 'm')}, ${formatSI(p.y_m, 'm')}), ρ = ${formatSI(p.rho_m, 'm')}` +
-      `, time-domain relErrMax ${formatSig(p.relErrMax, 3)}`);
-    if (p.spectra.length === 0) continue;
+      (p.reached ? `, time-domain relErrMax ${formatSig(p.relErrMax, 3)}` : ': not reached (the run ended before the pulse arrived)'));
+    if (p.spectra.length === 0 || !p.reached) continue;
     out('  frequency     ρ (λ)    |Ez/I| error   phase error   predicted');
     for (let k = 0; k < p.spectra.length; k++) {
       const s = p.spectra[k];
@@ -106,14 +107,18 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   if (blowUp) process.stderr.write(`gridgauge: run stopped: ${blowUp.reason}; what was recorded up to step ${blowUp.step} is kept\n`);
   const runSeconds = secondsSince(t0);
   const results = collectResults(sim);
+  const energyLeft = energyLeftWarning(outcome.energyLeftDb, scenario.steps);
+  const warnings = [...scenarioWarnings(scenario), ...(energyLeft ? [energyLeft] : [])];
   const files = runFiles(results, {
     run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies,
     ...(blowUp ? { stopped: blowUp } : interrupted ? { stopped: { step: sim.stepsDone, reason: 'interrupted' } } : {}),
+    warnings,
   });
   if (outDir) await writeFiles(outDir, files);
   if (json) {
     process.stdout.write(files['summary.json']);
   } else {
+    printWarnings(warnings);
     out(`${sim.layout.nx} × ${sim.layout.ny} grid, ${results.steps} steps of ${formatSI(results.dt_s, 's')} in ${runSeconds.toFixed(2)} s`);
     printProbeTable(results, out);
     if (outDir) out(`wrote timeseries.csv, spectra.csv, lines.csv, summary.json to ${outDir}`);
@@ -125,14 +130,21 @@ async function commandRun(args: ParsedArgs): Promise<number> {
 /** Key suffixes of derived quantities and the unit each is shown in. */
 const UNIT_SUFFIXES: [string, string][] = [['_m_per_s', 'm/s'], ['_Hz', 'Hz'], ['_s', 's'], ['_m', 'm']];
 
+/** Warnings first, each on its own line: the field to change, then what and how. */
+function printWarnings(warnings: readonly Warning[]): void {
+  for (const w of warnings) out(`warning: ${w.path}: ${w.message}`);
+}
+
 async function commandCheck(args: ParsedArgs): Promise<number> {
   const scenario = await loadScenarioFile(args.positional[0]);
   const d = deriveQuantities(scenario);
+  const warnings = scenarioWarnings(scenario);
   if (args.options.has('json')) {
-    process.stdout.write(jsonForOutput({ ok: true, derived: d }));
+    process.stdout.write(jsonForOutput({ ok: true, derived: d, warnings }));
     return 0;
   }
-  out(`scenario is valid`);
+  printWarnings(warnings);
+  out(`scenario is valid${warnings.length ? ` (${warnings.length} warning${warnings.length === 1 ? '' : 's'} above)` : ''}`);
   for (const [key, value] of Object.entries(d)) {
     const unit = UNIT_SUFFIXES.find(([suffix]) => key.endsWith(suffix))?.[1];
     const shown = typeof value !== 'number' ? JSON.stringify(value)

@@ -4,6 +4,7 @@ import { wrapDegrees } from '../exact/angles.ts';
 import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { exactTimeSeries } from '../exact/transient.ts';
 import { nodeDistance, type Node } from '../scenario/layout.ts';
+import { unreachedProbes } from '../scenario/warnings.ts';
 import { complexRatioErrors, maxDifferenceAndPeak, schemeTransfer } from './metrics.ts';
 
 /** FDTD beside exact at one point and one frequency, both as Ez/I in V/m per A. */
@@ -16,10 +17,16 @@ export interface SpectrumPoint {
   phase_err_deg: number;
   /** From the Yee dispersion relation along the direction from the source; NaN above cutoff. */
   predicted_phase_err_deg: number;
+  /** Magnitude error the dispersion relation predicts (0 in a lossless medium), dB; NaN where no prediction applies. */
+  predicted_mag_err_dB: number;
+  /** Why the numbers are missing or what they mean: "not reached", or empty. */
+  note: string;
 }
 
 export interface ProbeResult {
   name: string; i: number; j: number; x_m: number; y_m: number; rho_m: number;
+  /** False when the run ended before the pulse reached the probe: its errors are left out (NaN). */
+  reached: boolean;
   /** ρ in wavelengths at each analysis frequency (medium wavelength). */
   rho_wavelengths: number[];
   /** max_n |fdtd − exact| / max_n |exact|; NaN where undefined (ρ = 0). */
@@ -52,13 +59,17 @@ function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number
   return wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
 }
 
-function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number): SpectrumPoint {
+function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number, reached = true): SpectrumPoint {
   const fdtd = schemeTransfer(dft, current);
   const exact = lineCurrentTransfer(f, rho, sim.scenario.medium.epsR);
-  const { magDb, phaseDeg } = complexRatioErrors(fdtd, exact);
+  const { magDb, phaseDeg } = reached ? complexRatioErrors(fdtd, exact) : { magDb: NaN, phaseDeg: NaN };
+  const phase = predicted(sim, f, sim.layout.source, node, rho);
   return {
     f_Hz: f, rho_m: rho, fdtd, exact, mag_err_dB: magDb, phase_err_deg: phaseDeg,
-    predicted_phase_err_deg: predicted(sim, f, sim.layout.source, node, rho),
+    predicted_phase_err_deg: phase,
+    // the lossless relation gives a real k̃: no predicted change of magnitude
+    predicted_mag_err_dB: Number.isFinite(phase) ? 0 : NaN,
+    note: reached ? '' : 'not reached',
   };
 }
 
@@ -81,6 +92,7 @@ export function collectResults(sim: Simulation): RunResults {
   const freqs = scenario.frequencies;
   const currents = freqs.map((f) => sim.currentDft(f));
   const src = layout.source;
+  const unreached = unreachedProbes(scenario, steps);
 
   const probes = layout.probes.map((p, index): ProbeResult => {
     const rho = nodeDistance(p, src, layout.dx, layout.dy);
@@ -88,12 +100,13 @@ export function collectResults(sim: Simulation): RunResults {
     const exact = rho > 0
       ? exactTimeSeries(scenario.source.waveform, scenario.source.amplitude, rho, epsR, dt, steps + 1)
       : new Float64Array(steps + 1).fill(NaN);
+    const reached = !unreached.has(index);
     return {
-      name: p.name, i: p.i, j: p.j, x_m: p.x, y_m: p.y, rho_m: rho,
+      name: p.name, i: p.i, j: p.j, x_m: p.x, y_m: p.y, rho_m: rho, reached,
       rho_wavelengths: freqs.map((f) => (rho * f) / layout.c),
-      relErrMax: relativeMaxError(fdtd, exact),
+      relErrMax: reached ? relativeMaxError(fdtd, exact) : NaN,
       fdtd, exact,
-      spectra: freqs.map((f, k) => spectrumPoint(sim, f, currents[k], sim.probeDft(index, k), p, rho)),
+      spectra: freqs.map((f, k) => spectrumPoint(sim, f, currents[k], sim.probeDft(index, k), p, rho, reached)),
     };
   });
 

@@ -47,6 +47,8 @@ export interface DriveOutcome {
   stopped: boolean;
   blowUp?: BlowUp;
   steppingMs: number;
+  /** With the watch on: field energy at the end over its peak after the source ended, dB (NaN if unknown). */
+  energyLeftDb: number;
 }
 
 class Driver {
@@ -59,7 +61,10 @@ class Driver {
 
   constructor(private readonly sim: Steppable, private readonly o: DriveOptions) {
     const cells = sim.layout.nx * sim.layout.ny;
-    this.max = o.maxBatchSteps ?? 500;
+    // with the watch on, at least ~32 checks per run, so the energy left at the end is
+    // measured against a peak actually seen
+    const total = sim.stepsDone + sim.stepsLeft;
+    this.max = Math.max(1, Math.min(o.maxBatchSteps ?? 500, o.watch ? Math.ceil(total / 32) : Infinity));
     this.batch = Math.max(1, Math.min(this.max, Math.floor((o.cellsPerBatch ?? 2e7) / cells)));
     this.watch = o.watch ? new BlowUpWatch(sim) : undefined;
   }
@@ -91,7 +96,10 @@ class Driver {
   }
 
   outcome(): DriveOutcome {
-    return { stepsDone: this.sim.stepsDone, stopped: this.sim.stepsLeft > 0, blowUp: this.blowUp, steppingMs: this.steppingMs };
+    return {
+      stepsDone: this.sim.stepsDone, stopped: this.sim.stepsLeft > 0, blowUp: this.blowUp, steppingMs: this.steppingMs,
+      energyLeftDb: this.watch?.energyLeftDb() ?? NaN,
+    };
   }
 }
 

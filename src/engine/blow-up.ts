@@ -52,6 +52,15 @@ export class BlowUpWatch {
     return 0.5 * (EPS0 * this.sim.scenario.medium.epsR * e + MU0 * h) * dx * dy;
   }
 
+  /**
+   * Field energy at the last check over the largest seen after the source ended, dB; NaN
+   * before any such check. A run whose response has died away ends far below 0 dB.
+   */
+  energyLeftDb(): number {
+    if (!(this.peakEnergy > 0)) return NaN;
+    return 10 * Math.log10(this.lastEnergy / this.peakEnergy);
+  }
+
   check(): BlowUp | undefined {
     const step = this.sim.stepsDone;
     const m = this.sim.maxAbsEz();

@@ -22,8 +22,8 @@ const spectrumColumns = (s: SpectrumPoint) => [
 
 /** `spectra.csv`: one row per probe per analysis frequency. */
 export function spectraCsv(r: RunResults): string {
-  const header = ['probe', 'f_Hz', 'rho_m', 'fdtd_re', 'fdtd_im', 'exact_re', 'exact_im', 'mag_err_dB', 'phase_err_deg', 'predicted_phase_err_deg'];
-  const rows = r.probes.flatMap((p) => p.spectra.map((s) => [p.name, s.f_Hz, s.rho_m, ...spectrumColumns(s), s.predicted_phase_err_deg]));
+  const header = ['probe', 'f_Hz', 'rho_m', 'fdtd_re', 'fdtd_im', 'exact_re', 'exact_im', 'mag_err_dB', 'phase_err_deg', 'predicted_phase_err_deg', 'predicted_mag_err_dB', 'note'];
+  const rows = r.probes.flatMap((p) => p.spectra.map((s) => [p.name, s.f_Hz, s.rho_m, ...spectrumColumns(s), s.predicted_phase_err_deg, s.predicted_mag_err_dB, s.note]));
   return toCsv(header, rows);
 }
 
@@ -47,7 +47,9 @@ export function summaryObject(r: RunResults, extra: Record<string, unknown> = {}
       rho_wavelengths: p.rho_wavelengths,
       spectra: p.spectra.map((s) => ({
         f_Hz: s.f_Hz, mag_err_dB: s.mag_err_dB, phase_err_deg: s.phase_err_deg, predicted_phase_err_deg: s.predicted_phase_err_deg,
+        predicted_mag_err_dB: s.predicted_mag_err_dB, ...(s.note ? { note: s.note } : {}),
       })),
+      reached: p.reached,
     })),
     stepsPlanned: r.stepsPlanned,
     complete: r.steps === r.stepsPlanned,

@@ -7,7 +7,7 @@
  * (and any earlier rule), so one mistake does not set off a cascade of follow-on messages.
  */
 import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
-import { lineNodes, snapIndex, stabilityLimit, timeStep } from './layout.ts';
+import { lineNodes, snapIndex, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { PathSegment } from './path.ts';
 import { pathsOverlap } from './path.ts';
 import { ABSORBER_DEFAULTS, MEDIUM_DEFAULTS } from './schema.ts';
@@ -149,10 +149,17 @@ function checkFrequencies(r: FieldReader, report: Report): void {
   const dt = validTimeStep(r);
   if (dt === undefined) return;
   const highest = 1 / (2 * dt);
+  const dx = r.number(['grid', 'dx']) as number;
+  const dy = r.number(['grid', 'dy']) as number;
+  const epsR = r.number(['medium', 'epsR'], MEDIUM_DEFAULTS.epsR) as number;
   for (let k = 0; k < r.count(['frequencies']); k++) {
     const f = r.number(['frequencies', k]);
     if (f === undefined || f < highest) continue;
-    report(['frequencies', k], `${f} Hz is not below 1/(2·dt) = ${approx(highest)} Hz, the highest frequency this time step can sample; use a lower frequency, or smaller cells or Courant number`);
+    // a frequency far above what cells of 10 cm or more resolve is most often millimetres typed as metres
+    const d = Math.max(dx, dy);
+    const cells = waveSpeed(epsR) / f / d;
+    const slip = d >= 0.1 && cells < 1 && cells * 1000 >= 5 ? ` (grid.dx/dy of ${approx(d)} m is ${approx(cells)} cells per wavelength at ${f} Hz: did you mean ${approx(d)} mm, i.e. ${approx(d / 1000)} m?)` : '';
+    report(['frequencies', k], `${f} Hz is not below 1/(2·dt) = ${approx(highest)} Hz, the highest frequency this time step can sample${slip}; use a lower frequency, or smaller cells or Courant number`);
   }
 }
 

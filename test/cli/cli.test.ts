@@ -23,7 +23,8 @@ describe('gridgauge run', () => {
     expect(ts[0]).toEqual(['t_s', 'near.fdtd', 'near.exact', 'far.fdtd', 'far.exact', 'diagonal.fdtd', 'diagonal.exact']);
     expect(ts.length).toBe(1 + 1201); // header + samples n = 0..steps
     const sp = parseCsv(readFileSync(join(out, 'spectra.csv'), 'utf8'));
-    expect(sp[0].join(',')).toBe('probe,f_Hz,rho_m,fdtd_re,fdtd_im,exact_re,exact_im,mag_err_dB,phase_err_deg,predicted_phase_err_deg');
+    // the contract's columns, then the additions at the end (predicted magnitude error, note)
+    expect(sp[0].join(',')).toBe('probe,f_Hz,rho_m,fdtd_re,fdtd_im,exact_re,exact_im,mag_err_dB,phase_err_deg,predicted_phase_err_deg,predicted_mag_err_dB,note');
     expect(sp.length).toBe(1 + 3 * 3);
     const ln = parseCsv(readFileSync(join(out, 'lines.csv'), 'utf8'));
     expect(ln[0].join(',')).toBe('line,s_m,x_m,y_m,rho_m,f_Hz,fdtd_re,fdtd_im,exact_re,exact_im,mag_err_dB,phase_err_deg');

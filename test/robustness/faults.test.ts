@@ -67,7 +67,8 @@ describe('nothing lost', () => {
     r.probes.forEach((p, k) => p.spectra.forEach((s, f) => {
       const row = sp[1 + k * r.frequencies.length + f];
       expect(row[0]).toBe(p.name);
-      expect(row.slice(1).map(Number)).toEqual([s.f_Hz, s.rho_m, ...s.fdtd, ...s.exact, s.mag_err_dB, s.phase_err_deg, s.predicted_phase_err_deg]);
+      expect(row.slice(1, -1).map(Number)).toEqual([s.f_Hz, s.rho_m, ...s.fdtd, ...s.exact, s.mag_err_dB, s.phase_err_deg, s.predicted_phase_err_deg, s.predicted_mag_err_dB]);
+      expect(row[row.length - 1]).toBe(s.note);
     }));
     const summary = JSON.parse(files['summary.json']);
     expect(summary.probes.map((p: { relErrMax: number }) => p.relErrMax)).toEqual(r.probes.map((p) => p.relErrMax));
