@@ -171,12 +171,24 @@ function studyVerb(d: AnyStudyDefinition) {
   };
 }
 
-const COMMANDS: Record<string, { valued: string[]; flags: string[]; run: (a: ParsedArgs) => Promise<number> }> = {
+interface Command { valued: string[]; flags: string[]; run: (a: ParsedArgs) => Promise<number>; files?: number }
+/** Verbs, their options, and how many files each takes (default one scenario file). */
+const COMMANDS: Record<string, Command> = {
   run: { valued: ['out'], flags: ['json'], run: commandRun },
   check: { valued: [], flags: ['json'], run: commandCheck },
   ...Object.fromEntries(STUDIES.map((d) => [d.verb, studyVerb(d)])),
-  bench: { valued: [], flags: ['json'], run: commandBench },
+  bench: { valued: [], flags: ['json'], run: commandBench, files: 0 },
 };
+
+/** Refuses arguments a verb would otherwise ignore, e.g. a second scenario file. */
+function checkFileCount(verb: string, command: Command, args: ParsedArgs): void {
+  const allowed = command.files ?? 1;
+  const extra = args.positional.slice(allowed);
+  if (extra.length === 0) return;
+  const takes = allowed === 0 ? 'takes no file' : 'takes one scenario file';
+  throw new UsageError(`${verb} ${takes}, but ${extra.map((e) => JSON.stringify(e)).join(', ')} ${extra.length === 1 ? 'was' : 'were'} given too; ` +
+    (allowed === 0 ? 'remove it' : 'run one scenario per call, or remove the extra argument'));
+}
 
 /** Runs the command line; returns the exit code. */
 export async function main(argv: readonly string[]): Promise<number> {
@@ -196,7 +208,9 @@ export async function main(argv: readonly string[]): Promise<number> {
       process.stdout.write(`${HELP()}\n`);
       return 0;
     }
-    return await command.run(parseArgs(rest, command.valued, command.flags));
+    const args = parseArgs(rest, command.valued, command.flags);
+    checkFileCount(verb, command, args);
+    return await command.run(args);
   } catch (e) {
     if (e instanceof InvalidInput) {
       for (const p of e.problems) process.stderr.write(`${p.path}: ${p.message}\n`);

@@ -255,10 +255,11 @@ function checkMemory(r: FieldReader, report: Report): void {
   const gridOnly = engineMemoryBytes({ ...input, steps: 0, probes: 0, dftPoints: 0, frequencies: 0 });
   const gridFits = gridOnly <= MEMORY_CAP_BYTES;
   const need = `a ${nx} × ${ny} grid run for ${steps} steps needs about ${showBytes(bytes)}, above the cap of ${showBytes(MEMORY_CAP_BYTES)}`;
-  const fix = gridFits
-    ? 'use a smaller grid, or fewer steps, probes, line points or frequencies'
-    : 'use a smaller grid (fewer nodes along x or y), for example larger cells';
-  report(['grid', 'nx'], `${need}; ${fix}`);
-  report(['grid', 'ny'], `${need}; ${fix}`);
+  // one problem, reported at both sizes it depends on, each saying what to change along its own axis
+  const fix = (axis: 'x' | 'y', other: string) => (gridFits
+    ? `use a smaller grid (fewer nodes along ${axis}, or along ${other}), or fewer steps, probes, line points or frequencies`
+    : `use a smaller grid: fewer nodes along ${axis} (or along ${other}), for example larger cells`);
+  report(['grid', 'nx'], `${need}; ${fix('x', 'y: grid.ny')}`);
+  report(['grid', 'ny'], `the same grid as grid.nx: ${need}; ${fix('y', 'x: grid.nx')}`);
   if (gridFits) report(['steps'], `${need}; the fields fit, but the stored time series and running DFTs do not; use fewer steps, probes, line points or frequencies`);
 }

@@ -62,7 +62,9 @@ function wholeNumberAtLeast(min: number, h: FieldHint, why: string) {
       error: (iss) => {
         const x = iss.input as number;
         if (Number.isInteger(x)) return `${x} is far too large; ${give(h)}`;
-        return `${x} is not a whole number; use a whole number such as ${Math.max(min, Math.round(x))}`;
+        // the nearest whole number, unless that is at or below the minimum: then the field's own example
+        const near = Math.round(x);
+        return `${x} is not a whole number; use a whole number such as ${near > min ? near : h.example}`;
       },
     })
     .gte(min, { error: (iss) => `${String(iss.input)} is below ${min}${why}; ${give(h)}` });

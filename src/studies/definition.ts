@@ -166,8 +166,10 @@ export function readNumberOption(name: string, text: string | undefined, unit: s
   if (text === undefined || text.trim() === '') return {};
   const value = Number(text.trim());
   if (Number.isFinite(value)) return { value };
-  const withoutUnit = Number(text.trim().replace(/[a-zA-Z°µ/%]+$/u, ''));
-  if (Number.isFinite(withoutUnit)) return { problem: `${name}: "${text}" has a unit in it; write the number of ${unit} alone, e.g. ${withoutUnit}` };
+  const number = text.trim().replace(/\s*[a-zA-Z°µ/%]+$/u, '');
+  if (number !== '' && number !== text.trim() && Number.isFinite(Number(number))) {
+    return { problem: `${name}: "${text}" has a unit in it; write the number of ${unit} alone, e.g. ${Number(number)}` };
+  }
   return { problem: `${name}: "${text}" is not a number of ${unit}; write e.g. ${example}` };
 }
 
