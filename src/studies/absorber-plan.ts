@@ -12,8 +12,11 @@ import { MEMORY_CAP_BYTES } from '../scenario/memory.ts';
 import { formatBytes } from '../scenario/units.ts';
 import { scenarioMemoryBytes } from '../scenario/derived.ts';
 import { layoutOf } from '../scenario/layout.ts';
-import type { Absorber, Probe, Scenario } from '../scenario/types.ts';
+import type { Absorber, Scenario } from '../scenario/types.ts';
 import { theoreticalReflectionDb } from './cpml-theory.ts';
+import { edgeProbes, type StudyProbe } from './edge-probes.ts';
+
+export type { StudyProbe } from './edge-probes.ts';
 import type { ProbeSeriesJob } from './jobs.ts';
 import { padScenario, referenceScenario } from './reflection.ts';
 
@@ -44,7 +47,18 @@ export interface AbsorberStudyOptions {
   alphaMaxes?: number[];
   /** Steps per run; at most the scenario's own (default: the scenario's). */
   steps?: number;
+  /**
+   * What the recommendation rests on: "worst-case" (default) the larger of the figure at
+   * the user's probes and at probes along the layer's inner face, short and long window;
+   * "probes" the user's probes only.
+   */
+  basis?: AbsorberBasis;
+  /** The long window in multiples of the steps (default 10); 0 leaves the long-run check out. */
+  longFactor?: number;
 }
+
+export type AbsorberBasis = 'worst-case' | 'probes';
+export const ABSORBER_BASES: readonly AbsorberBasis[] = ['worst-case', 'probes'];
 
 /** The sweeps of an absorber study when its options leave them out (not the scenario's default layer). */
 export const ABSORBER_SWEEP_DEFAULTS = {
@@ -55,17 +69,19 @@ export const ABSORBER_SWEEP_DEFAULTS = {
   sigmaScales: [0.25, 0.5, 1, 1.5, 2],
   kappaMaxes: [1, 5, 10, 15],
   alphaMaxes: [0, 0.05, 0.1, 0.2],
+  basis: 'worst-case',
+  longFactor: 10,
 } as const;
 
-/** One probe the study records, in metres on the user's own grid. */
-export interface StudyProbe extends Probe {
-  /** True when the study placed it (the scenario has no probes of its own). */
-  added: boolean;
+/** The layer of the long reference run: thick and graded so that nothing it reflects matters against any candidate. */
+export function longReferenceAbsorber(candidates: readonly Absorber[]): Absorber {
+  return { cells: Math.max(40, 2 * Math.max(...candidates.map((c) => c.cells))), order: 3, sigmaScale: 1, kappaMax: 5, alphaMax: 0.05 };
 }
+
 
 export interface AbsorberCandidatePlan {
   absorber: Absorber;
-  /** The candidate's one run: the probe series in this layer. */
+  /** The candidate's runs: the probe series in this layer, then (with the long-run check) over the long window. */
   jobs: ProbeSeriesJob[];
   /** Stable identity, e.g. "10/3/1/5/0.05". */
   key: string;
@@ -80,9 +96,12 @@ export interface AbsorberCandidatePlan {
 }
 
 export interface AbsorberStudyPlan {
-  /** The reference run every candidate is scored against. */
+  /** The reference run every candidate is scored against, then (with the long-run check) the long reference. */
   shared: ProbeSeriesJob[];
   target_dB: number;
+  basis: AbsorberBasis;
+  /** Steps of the long window (0: no long-run check). */
+  longSteps: number;
   steps: number;
   dt_s: number;
   probes: StudyProbe[];
@@ -157,6 +176,10 @@ export function absorberOptionProblems(o: AbsorberStudyOptions): string[] {
   list('kappaMaxes', o.kappaMaxes, (v) => v >= 1, '1 or more');
   list('alphaMaxes', o.alphaMaxes, (v) => v >= 0, 'zero or more');
   if (o.steps !== undefined && !(Number.isInteger(o.steps) && o.steps >= 1)) problems.push(`steps: ${o.steps} is not a whole number of steps ≥ 1`);
+  if (o.basis !== undefined && !ABSORBER_BASES.includes(o.basis)) problems.push(`basis: "${o.basis}" is not a basis; use worst-case or probes`);
+  if (o.longFactor !== undefined && !(Number.isInteger(o.longFactor) && o.longFactor >= 0 && o.longFactor <= 100)) {
+    problems.push(`long-run: ${o.longFactor} is not a whole number of windows from 0 to 100; use e.g. 10, or 0 to leave the long-run check out`);
+  }
   return problems;
 }
 
@@ -233,7 +256,10 @@ export function planAbsorberStudy(s: Scenario, options: AbsorberStudyOptions = {
   const problems = absorberOptionProblems(options);
   if (problems.length > 0) throw new RangeError(problems.join('; '));
   const steps = Math.min(options.steps ?? s.steps, s.steps);
-  const probes = studyProbes(s);
+  const own = studyProbes(s);
+  const taken = new Set(own.map((p) => `${Math.floor(p.x / s.grid.dx + 0.5)},${Math.floor(p.y / s.grid.dy + 0.5)}`));
+  const probes = [...own, ...edgeProbes(s, taken)];
+  const longSteps = steps * (options.longFactor ?? ABSORBER_SWEEP_DEFAULTS.longFactor);
   const measured: Scenario = {
     ...s,
     probes: probes.map(({ name, x, y }) => ({ name, x, y })),
@@ -241,11 +267,13 @@ export function planAbsorberStudy(s: Scenario, options: AbsorberStudyOptions = {
     frequencies: [],
     steps,
   };
-  const candidates = absorberCandidates(s.absorber, options).map((absorber): AbsorberCandidatePlan => {
+  const long: Scenario = { ...measured, steps: longSteps };
+  const absorbers = absorberCandidates(s.absorber, options);
+  const candidates = absorbers.map((absorber): AbsorberCandidatePlan => {
     const scenario = applyAbsorber(measured, absorber);
     return {
       absorber,
-      jobs: [{ kind: 'probe-series', scenario }],
+      jobs: [{ kind: 'probe-series', scenario }, ...(longSteps > 0 ? [{ kind: 'probe-series' as const, scenario: applyAbsorber(long, absorber) }] : [])],
       key: absorberKey(absorber),
       isCurrent: absorberKey(absorber) === absorberKey(s.absorber),
       scenario,
@@ -259,9 +287,12 @@ export function planAbsorberStudy(s: Scenario, options: AbsorberStudyOptions = {
     throw new RangeError(`steps: the reference grid for ${steps} steps is ${reference.grid.nx} × ${reference.grid.ny} nodes and would need ` +
       `${formatBytes(referenceBytes)}, above the ${formatBytes(MEMORY_CAP_BYTES)} cap; study fewer steps`);
   }
+  const longReference = applyAbsorber(long, longReferenceAbsorber(absorbers));
   return {
-    shared: [{ kind: 'probe-series', scenario: reference }],
+    shared: [{ kind: 'probe-series', scenario: reference }, ...(longSteps > 0 ? [{ kind: 'probe-series' as const, scenario: longReference }] : [])],
     target_dB: options.target_dB ?? ABSORBER_SWEEP_DEFAULTS.target_dB,
+    basis: options.basis ?? ABSORBER_SWEEP_DEFAULTS.basis,
+    longSteps,
     steps,
     dt_s: layoutOf(s).dt,
     probes,
@@ -275,11 +306,13 @@ export function planAbsorberStudy(s: Scenario, options: AbsorberStudyOptions = {
  * The recommendation: among candidates whose reflection is at or below the target, the
  * fewest cells; among those, the lowest reflection (the largest margin). Null if none.
  */
-export function recommendAbsorber<T extends Absorber & { reflection_dB: number }>(candidates: readonly T[], target_dB: number): T | null {
+export function recommendAbsorber<T extends Absorber & { reflection_dB: number }>(
+  candidates: readonly T[], target_dB: number, figure: (c: T) => number = (c) => c.reflection_dB,
+): T | null {
   let best: T | null = null;
   for (const c of candidates) {
-    if (!(c.reflection_dB <= target_dB)) continue;
-    if (!best || c.cells < best.cells || (c.cells === best.cells && c.reflection_dB < best.reflection_dB)) best = c;
+    if (!(figure(c) <= target_dB)) continue;
+    if (!best || c.cells < best.cells || (c.cells === best.cells && figure(c) < figure(best))) best = c;
   }
   return best;
 }

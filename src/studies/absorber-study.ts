@@ -7,7 +7,7 @@ import type { Scenario } from '../scenario/types.ts';
 import { formatBytes } from '../scenario/units.ts';
 import {
   ABSORBER_SWEEP_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, gradingKey, planAbsorberStudy, recommendAbsorber,
-  type AbsorberCandidatePlan, type AbsorberGrading, type AbsorberStudyOptions, type AbsorberStudyPlan, type StudyProbe,
+  type AbsorberBasis, type AbsorberCandidatePlan, type AbsorberGrading, type AbsorberStudyOptions, type AbsorberStudyPlan, type StudyProbe,
 } from './absorber-plan.ts';
 import { readListOption, readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
 import type { ProbeSeriesResult } from './jobs.ts';
@@ -22,8 +22,14 @@ export interface AbsorberCandidateResult {
   cells: number; order: number; sigmaScale: number; kappaMax: number; alphaMax: number;
   key: string;
   isCurrent: boolean;
-  /** Worst probe's max_n |E − Eref| / max_n |Eref|, dB; NaN if the run failed. */
+  /** Worst of the user's probes: max_n |E − Eref| / max_n |Eref|, dB; NaN if the run failed. */
   reflection_dB: number;
+  /** The worst case: the larger of every probe's figure (the user's and those along the layer) and the long window's, dB. */
+  reflection_worst_dB: number;
+  /** Every probe over the long window against the long reference, dB (NaN without the long-run check). */
+  long_dB: number;
+  /** The probe where the worst case was found. */
+  worst_case_probe: string;
   theory_dB: number;
   memory_bytes: number;
   /** Run time of the candidate in its worker, s. */
@@ -41,6 +47,10 @@ export interface AbsorberCandidateResult {
 
 export interface AbsorberStudyResult {
   target_dB: number;
+  /** What the recommendation rests on. */
+  basis: AbsorberBasis;
+  /** Steps of the long window (0: no long-run check). */
+  longSteps: number;
   steps: number;
   dt_s: number;
   probes: StudyProbe[];
@@ -78,27 +88,46 @@ function baseRow(plan: AbsorberCandidatePlan, seconds: number) {
   };
 }
 
-/** Reflection figures of one finished candidate run against the reference series. */
+/** The figure a recommendation on `basis` reads. */
+export const basisFigure = (basis: AbsorberBasis) => (c: AbsorberCandidateResult) => (basis === 'worst-case' ? c.reflection_worst_dB : c.reflection_dB);
+
+/**
+ * Reflection figures of one finished candidate against the reference runs: at the user's
+ * probes (short window), and the worst case over every probe, short window and, when given,
+ * the long window against the long reference.
+ */
 export function evaluateCandidate(
   plan: AbsorberCandidatePlan, probes: readonly StudyProbe[], run: ProbeSeriesResult, reference: Float32Array[],
+  long?: { run: ProbeSeriesResult; reference: Float32Array[] },
 ): AbsorberCandidateResult {
-  const base = baseRow(plan, run.seconds);
-  if (!run.finite) {
-    return { ...base, reflection_dB: NaN, worst_probe: '', per_probe_dB: {}, errorSeries: new Float32Array(0), error: 'the field became infinite or NaN (unstable run)' };
+  const base = baseRow(plan, run.seconds + (long?.run.seconds ?? 0));
+  if (!run.finite || (long && !long.run.finite)) {
+    return { ...base, ...EMPTY, error: 'the field became infinite or NaN (unstable run)' };
   }
   const { perProbe } = reflectionErrorDb(run.series, reference);
-  const worst = worstProbe(perProbe);
+  const own = probes.map((p, k) => (p.edge ? NaN : perProbe[k]));
+  const worst = worstProbe(own);
+  const longPerProbe = long ? reflectionErrorDb(long.run.series, long.reference).perProbe : [];
+  const everywhere = worstProbe([...perProbe, ...longPerProbe]);
   const per_probe_dB: Record<string, number> = {};
   probes.forEach((p, k) => { per_probe_dB[p.name] = perProbe[k]; });
   return {
     ...base,
     reflection_dB: worst.value,
+    reflection_worst_dB: everywhere.value,
+    long_dB: long ? worstProbe(longPerProbe).value : NaN,
     worst_probe: worst.index >= 0 ? probes[worst.index].name : '',
+    worst_case_probe: everywhere.index >= 0 ? `${probes[everywhere.index % probes.length].name}${everywhere.index >= probes.length ? ' (long window)' : ''}` : '',
     per_probe_dB,
     errorSeries: worst.index >= 0 ? Float32Array.from(reflectionErrorSeries(run.series[worst.index], reference[worst.index])) : new Float32Array(0),
     ...(worst.index < 0 ? { error: 'no probe received the pulse within the window; add steps or move probes' } : {}),
   };
 }
+
+/** The figures of a candidate without any. */
+const EMPTY = {
+  reflection_dB: NaN, reflection_worst_dB: NaN, long_dB: NaN, worst_probe: '', worst_case_probe: '', per_probe_dB: {}, errorSeries: new Float32Array(0),
+};
 
 const dB = (x: number) => (Number.isFinite(x) ? `${x.toFixed(1)} dB` : x === -Infinity ? '−∞ dB' : '—');
 const gradingText = (c: AbsorberCandidateResult) => `${c.cells} cells, m ${c.order}, sigmaScale ${c.sigmaScale}, kappaMax ${c.kappaMax}, alphaMax ${c.alphaMax}`;
@@ -107,33 +136,38 @@ const absorberOf = (a: AbsorberCandidateResult) => ({ cells: a.cells, order: a.o
 /** Columns of absorber.csv: the contract's first, extras after. */
 export const ABSORBER_CSV_HEADER = [
   'cells', 'order', 'sigmaScale', 'kappaMax', 'alphaMax', 'reflection_dB', 'theory_dB', 'memory_bytes', 'seconds',
-  'worst_probe', 'nx', 'ny', 'current',
+  'worst_probe', 'nx', 'ny', 'current', 'reflection_worst_dB', 'long_dB', 'worst_case_probe',
 ] as const;
 
 /** The object written as `absorber.json` and printed by `absorber-study --json`. */
 export function absorberJsonObject(r: AbsorberStudyResult) {
   const brief = (c: AbsorberCandidateResult | null) => c && {
     ...absorberOf(c), reflection_dB: c.reflection_dB, theory_dB: c.theory_dB, memory_bytes: c.memory_bytes,
-    margin_dB: r.target_dB - c.reflection_dB,
+    margin_dB: r.target_dB - basisFigure(r.basis)(c),
+    reflection_worst_dB: c.reflection_worst_dB,
   };
   return {
     target_dB: r.target_dB,
-    recommended: brief(r.recommended),
+    recommended: r.recommended && { ...brief(r.recommended), basis: r.basis },
     current: brief(r.current),
     candidates: r.candidates.map((c) => ({
       ...absorberOf(c), reflection_dB: c.reflection_dB, theory_dB: c.theory_dB, memory_bytes: c.memory_bytes, seconds: c.seconds,
       worst_probe: c.worst_probe, per_probe_dB: c.per_probe_dB, nx: c.nx, ny: c.ny, current: c.isCurrent,
+      reflection_worst_dB: c.reflection_worst_dB, long_dB: c.long_dB, worst_case_probe: c.worst_case_probe,
       ...(c.error ? { error: c.error } : {}),
     })),
     method: 'reference grid: error(t) = |E - Eref| / max|Eref| at each probe; a candidate\'s figure is its worst probe\'s maximum, in dB',
     steps: r.steps,
     dt_s: r.dt_s,
-    probes: r.probes.map((p) => ({ name: p.name, x_m: p.x, y_m: p.y, added: p.added })),
+    probes: r.probes.map((p) => ({ name: p.name, x_m: p.x, y_m: p.y, added: p.added, ...(p.edge ? { edge: true } : {}) })),
     reference: r.reference,
     planned: r.planned,
     complete: r.complete,
     workers: r.workers.length,
     study_seconds: r.seconds,
+    basis: r.basis,
+    long_steps: r.longSteps,
+    worst_case_method: 'the larger of every probe\'s figure (the user\'s and probes one cell inside the layer along every side and in the corners) over the window, and over a window of long_steps against a run with a thick layer',
   };
 }
 
@@ -149,7 +183,7 @@ function absorberOutputs(r: AbsorberStudyResult): StudyOutput[] {
       name: 'absorber.csv', kind: 'csv', header: ABSORBER_CSV_HEADER,
       rows: r.candidates.map((c) => [
         c.cells, c.order, c.sigmaScale, c.kappaMax, c.alphaMax, c.reflection_dB, c.theory_dB, c.memory_bytes, c.seconds,
-        c.worst_probe, c.nx, c.ny, c.isCurrent ? 1 : 0,
+        c.worst_probe, c.nx, c.ny, c.isCurrent ? 1 : 0, c.reflection_worst_dB, c.long_dB, c.worst_case_probe,
       ]),
     },
     { name: 'absorber.json', kind: 'json', value: absorberJsonObject(r) },
@@ -209,6 +243,8 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
   summary: 'Measure CPML reflection for a range of layer settings; recommend the thinnest layer that meets the target (default -60 dB).',
   options: [
     { name: 'target', label: 'Target (dB)', metavar: 'DB', help: 'largest acceptable reflection error, a negative number of dB', defaultText: String(ABSORBER_SWEEP_DEFAULTS.target_dB) },
+    { name: 'basis', label: 'Recommend on', help: 'worst-case: probes along the layer and a long window too; probes: your own probes only', defaultText: 'worst-case', choices: ['worst-case', 'probes'], metavar: 'worst-case|probes' },
+    { name: 'long-run', label: 'Long window (× steps)', help: 'the long-run check\'s window in multiples of your steps; 0 leaves it out', defaultText: String(ABSORBER_SWEEP_DEFAULTS.longFactor), metavar: 'FACTOR' },
     { name: 'cells', label: 'Layer cells swept', help: 'thicknesses swept with each grading', defaultText: ABSORBER_SWEEP_DEFAULTS.cells.join(', '), where: 'page' },
     { name: 'grading-cells', label: 'Cells for the grading grids', help: 'thickness at which orders, σ, κ and α are swept', defaultText: ABSORBER_SWEEP_DEFAULTS.gradingCells.join(', '), where: 'page' },
     { name: 'orders', label: 'Orders m', help: 'polynomial grading orders', defaultText: ABSORBER_SWEEP_DEFAULTS.orders.join(', '), where: 'page' },
@@ -230,6 +266,8 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
     };
     const options: AbsorberStudyOptions = {
       target_dB: num('target', 'dB', '-60'),
+      basis: values.basis === undefined || values.basis === '' ? undefined : values.basis as AbsorberBasis,
+      longFactor: num('long-run', 'windows', '10'),
       cells: list('cells', 'cells', '4, 8, 12'),
       gradingCells: list('grading-cells', 'cells', '8'),
       orders: list('orders', 'orders', '2, 3, 4'),
@@ -242,23 +280,26 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
     return problems.length ? { problems } : { options, problems };
   },
   plan: planAbsorberStudy,
-  checkShared(_plan, [reference]) {
-    if (!(reference as ProbeSeriesResult).finite) throw new Error('the reference run became infinite or NaN; check grid.courant');
+  checkShared(_plan, shared) {
+    if (!shared.every((r) => (r as ProbeSeriesResult).finite)) throw new Error('a reference run became infinite or NaN; check grid.courant');
   },
-  evaluate: (plan, c, [run], [reference]) => evaluateCandidate(c, plan.probes, run as ProbeSeriesResult, (reference as ProbeSeriesResult).series),
-  failed: (_plan, c, error) => ({
-    ...baseRow(c, NaN), reflection_dB: NaN, worst_probe: '', per_probe_dB: {}, errorSeries: new Float32Array(0), error,
-  }),
+  evaluate: (plan, c, [run, long], [reference, longReference]) => evaluateCandidate(
+    c, plan.probes, run as ProbeSeriesResult, (reference as ProbeSeriesResult).series,
+    long && longReference ? { run: long as ProbeSeriesResult, reference: (longReference as ProbeSeriesResult).series } : undefined,
+  ),
+  failed: (_plan, c, error) => ({ ...baseRow(c, NaN), ...EMPTY, error }),
   compare: compareAbsorbers,
-  pick: (plan, rows) => recommendAbsorber(rows, plan.target_dB),
+  pick: (plan, rows) => recommendAbsorber(rows, plan.target_dB, basisFigure(plan.basis)),
   finish: (plan, candidates, info) => ({
     target_dB: plan.target_dB,
+    basis: plan.basis,
+    longSteps: plan.longSteps,
     steps: plan.steps,
     dt_s: plan.dt_s,
     probes: plan.probes,
     reference: { nx: plan.reference.grid.nx, ny: plan.reference.grid.ny, seconds: info.shared[0]?.seconds ?? NaN },
     candidates,
-    recommended: recommendAbsorber(candidates, plan.target_dB),
+    recommended: recommendAbsorber(candidates, plan.target_dB, basisFigure(plan.basis)),
     current: candidates.find((r) => r.isCurrent) ?? null,
     planned: info.planned,
     complete: info.complete,
@@ -274,6 +315,7 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
     { label: 'kappaMax', value: (c) => String(c.kappaMax) },
     { label: 'alphaMax', value: (c) => String(c.alphaMax) },
     { label: 'reflection', value: (c) => dB(c.reflection_dB) },
+    { label: 'worst case', value: (c) => dB(c.reflection_worst_dB) },
     { label: 'theory', value: (c) => dB(c.theory_dB) },
     { label: 'worst probe', value: (c) => c.worst_probe || '—', text: true },
     { label: 'memory', value: (c) => formatBytes(c.memory_bytes) },
@@ -284,6 +326,7 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
     `absorber study: ${r.candidates.length} of ${r.planned} candidates, ${r.steps} steps each; reference grid ${r.reference.nx} × ${r.reference.ny}`,
     `probes: ${r.probes.map((p) => p.name).join(', ')}${r.probes.some((p) => p.added) ? ' (placed by the study: the scenario has none)' : ''}`,
     'reflection = worst probe of max|E − Eref| / max|Eref|; theory = exp(−2σmax·d/((m+1)εc)) of the continuous profile',
+    `worst case = the same over probes one cell inside the layer on every side and corner${r.longSteps > 0 ? `, and over ${r.longSteps} steps against a thick layer` : ''}; recommended on ${r.basis === 'worst-case' ? 'the worst case' : 'your probes'} (--basis)`,
   ],
   verdict(r) {
     const lines: string[] = [];
@@ -293,12 +336,14 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
         : `interrupted: ${r.candidates.length} of ${r.planned} candidates finished; the recommendation is among those`);
     }
     if (r.recommended) {
-      lines.push(`recommended: ${gradingText(r.recommended)}: ${dB(r.recommended.reflection_dB)} ` +
-        `(target ${r.target_dB} dB, margin ${(r.target_dB - r.recommended.reflection_dB).toFixed(1)} dB), ${formatBytes(r.recommended.memory_bytes)}`);
+      const figure = basisFigure(r.basis)(r.recommended);
+      lines.push(`recommended: ${gradingText(r.recommended)}: ${dB(figure)} ${r.basis === 'worst-case' ? 'worst case' : 'at your probes'} ` +
+        `(target ${r.target_dB} dB, margin ${(r.target_dB - figure).toFixed(1)} dB), ${formatBytes(r.recommended.memory_bytes)}` +
+        (r.basis === 'worst-case' ? `; at your probes ${dB(r.recommended.reflection_dB)}` : `; worst case ${dB(r.recommended.reflection_worst_dB)}`));
     } else if (r.candidates.length > 0) {
       lines.push(`no candidate meets the target ${r.target_dB} dB: recommended is null; try more cells or a less strict target`);
     }
-    if (r.current) lines.push(`current:     ${gradingText(r.current)}: ${dB(r.current.reflection_dB)}`);
+    if (r.current) lines.push(`current:     ${gradingText(r.current)}: ${dB(r.current.reflection_dB)} at your probes, ${dB(r.current.reflection_worst_dB)} worst case`);
     return lines;
   },
   noneMeets: (r) => `no candidate meets the target ${r.target_dB} dB: recommended is null`,
@@ -317,6 +362,7 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
       manifest: {
         study: 'absorber',
         target_dB: plan.target_dB,
+        basis: plan.basis,
         reference: 'reference.json',
         scoring: 'for each candidate and each probe: max_n |E[n] - Eref[n]| / max_n |Eref[n]| with Eref from reference.json; the candidate\'s figure is the largest over probes, 20*log10',
         candidates: entries,
