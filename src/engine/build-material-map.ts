@@ -12,17 +12,21 @@
  *
  * Average: around every electric sample point the dx × dy cell centred on it is shared out
  * among the objects (exact areas, geometry.ts) and the background; ε∞ and σ are the
- * arithmetic means weighted by those areas, ε∞ = Σ f·ε∞,k and σ = Σ f·σk (the parallel,
- * or arithmetic, mean of the mixing rules in Taflove & Hagness, Computational
- * Electrodynamics, 3rd ed., §10 on sub-cell averaging; section from memory). A conductor's
- * share of the cell is left out and the rest renormalised, because conductors stay
- * staircased. Dispersion poles are not blended: the point keeps those of the medium that
- * holds it (the object's, or the background's when no object holds it).
+ * arithmetic means weighted by those areas, ε∞ = Σ f·ε∞,k and σ = Σ f·σk. Integrating
+ * Ampère's law over the cell gives exactly this mean for a field component parallel to
+ * the interfaces (Hwang & Cangellaris, "Effective permittivities for second-order accurate
+ * FDTD equations at dielectric interfaces", IEEE MWCL 11(4), 2001), which Ez in TMz always
+ * is; for Ex and Ey in TEz it is the usual approximation (the component normal to an
+ * interface would want the harmonic mean). A conductor's share of the cell is left out and
+ * the rest renormalised, because conductors stay staircased. Dispersion poles are not
+ * blended: the point keeps those of the medium that holds it (the object's, or the
+ * background's when no object holds it; for a TEz edge whose midpoint lies in metal, the
+ * medium with the largest share of the cell).
  *
  * Conformal: as average, plus the contour-path correction of Dey & Mittra ("A locally
  * conformal finite-difference time-domain (FDTD) algorithm for modeling three-dimensional
- * perfectly conducting objects", IEEE Microwave and Guided Wave Letters 7(9), 1997) for
- * conductors. TMz: an Ez node in a conductor stays 'pec'; an H edge from such a node to a
+ * perfectly conducting objects", IEEE Microwave and Guided Wave Letters 7(9):273–275,
+ * 1997) for conductors. TMz: an Ez node in a conductor stays 'pec'; an H edge from such a node to a
  * node outside the metal gets lengthFraction f = (length of the edge outside the metal) /
  * (edge length), so the update reads dt/(μ0·f·Δ). TEz: every Hz cell (dx × dy around the
  * node) that a conductor cuts, or whose edges it cuts, gets its area fraction outside the
@@ -32,8 +36,8 @@
  *
  * Small cells. Both schemes are leapfrog updates u'' = −A·u of a matrix A similar to a
  * symmetric positive semi-definite one, stable when dt²·λmax(A) ≤ 4. By Gershgorin's circle
- * theorem (Gershgorin 1931; Horn & Johnson, Matrix Analysis, Thm 6.1.1) λmax(A) is at most
- * the largest absolute row sum, and each row belongs to one sample point:
+ * theorem (Gershgorin 1931; Horn & Johnson, Matrix Analysis, Thm 6.1.1, from memory)
+ * λmax(A) is at most the largest absolute row sum, and each row belongs to one sample point:
  *  - TMz, row of an Ez node with local wave speed c: R = c²·Σ_edges w, with w = 2/Δ² to a
  *    live neighbour, 1/Δ² to a conductor node along a whole edge, 1/(f·Δ²) along a cut edge
  *    (Δ = dx or dy, the edge's length);
@@ -49,10 +53,10 @@
  * is reported as `smallCells.threshold`; below it a cut is dropped only when its own row
  * fails the bound. `smallCells.dropped` counts dropped Ez nodes (TMz) or Hz cells (TEz).
  *
- * Only sample points within one cell of an object's bounding box are visited.
+ * Only sample points within two cells of an object's bounding box are visited.
  */
 import { C0 } from '../scenario/constants.ts';
-import { boundingBox, clipPolygon, layeredAreas, layeredLengths, polygonSignedArea, segmentInside, containsPoint, type Box, type Shape } from '../scenario/geometry.ts';
+import { boundingBox, clipPolygon, containsPoint, layeredAreas, layeredLengths, polygonSignedArea, segmentInside, type Box, type Shape } from '../scenario/geometry.ts';
 import type { Layout } from '../scenario/layout.ts';
 import type { Fill, Medium, Polarization, Scenario, SceneObject } from '../scenario/types.ts';
 import type { ComponentPatch, MaterialMap } from './material-map.ts';
@@ -81,7 +85,8 @@ export function buildMaterialMap(s: MaterialScenario, layout: Layout): MaterialM
   const polarization = s.polarization ?? 'TMz';
   const fill = s.fill ?? 'staircase';
   const map: MaterialMap = { polarization, background: s.medium, a: [], b: [], c: [], nodesPerObject: objects.map(() => 0) };
-  if (fill === 'conformal') map.smallCells = { dropped: 0, threshold: smallCellThreshold(s, layout, polarization) };
+  const smallCells = { dropped: 0, threshold: smallCellThreshold(s, layout, polarization) };
+  if (fill === 'conformal') map.smallCells = smallCells;
   if (objects.length === 0) return map;
   const g = new GridContext(s, layout);
   const blending = fill !== 'staircase';
@@ -94,7 +99,7 @@ export function buildMaterialMap(s: MaterialScenario, layout: Layout): MaterialM
       map.a = mergePatches(map.a, cut.replaceA);
       map.b = cut.b;
       map.c = cut.c;
-      map.smallCells = { dropped: cut.dropped, threshold: (map.smallCells as { threshold: number }).threshold };
+      smallCells.dropped = cut.dropped;
     }
     return map;
   }
@@ -110,7 +115,7 @@ export function buildMaterialMap(s: MaterialScenario, layout: Layout): MaterialM
   map.a = cut.a;
   map.b = cut.b;
   map.c = cut.c;
-  map.smallCells = { dropped: cut.dropped, threshold: (map.smallCells as { threshold: number }).threshold };
+  smallCells.dropped = cut.dropped;
   return map;
 }
 
@@ -552,6 +557,7 @@ function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: Lat
     for (let i = from; i <= to; i++) {
       const li = g.local(i, j);
       if (!cells.covered(li)) continue;
+      if (!cells.part.has(li) && g.isPec(cells.whole[li])) { nearMetal[li] = 1; metalShare[li] = 1; continue; }
       const { objects, areas } = cells.shares(i, j);
       let metal = 0;
       let any = false;
@@ -566,10 +572,10 @@ function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: Lat
 
   // Fraction of an edge outside the metal. Edge b(i, j) runs along y = (j+½)dy between the
   // Hz cells (i, j) and (i, j+1); edge c(i, j) along x = (i+½)dx between (i, j) and (i+1, j).
+  const nearEdge = (onB: boolean, i: number, j: number) => touchesMetal(i, j) || touchesMetal(onB ? i : i + 1, onB ? j + 1 : j);
   const edgeFraction = (onB: boolean, i: number, j: number): number => {
     const pi = onB ? i : i + 1;
     const pj = onB ? j + 1 : j;
-    if (!touchesMetal(i, j) && !touchesMetal(pi, pj)) return 1;
     if (allMetal(i, j) || allMetal(pi, pj)) return 0;
     const metal = onB
       ? metalLength(g, (i - 0.5) * g.dx, (j + 0.5) * g.dy, (i + 0.5) * g.dx, (j + 0.5) * g.dy) / g.dx
@@ -588,7 +594,8 @@ function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: Lat
         const li = g.local(i, j);
         const owner = v.owner[li];
         const k = j * g.nx + i;
-        const f = edgeFraction(onB, i, j);
+        const near = nearEdge(onB, i, j);
+        const f = near ? edgeFraction(onB, i, j) : 1;
         if (f < 1) fractions.set(k, f);
         if (f <= WHOLE) {
           out.push({ k, kind: 'pec' });
@@ -601,7 +608,7 @@ function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: Lat
         const m = mediumAround(v, i, j, li, poleOwner);
         if (m === undefined) continue;
         out.push({ k, kind: 'medium', medium: m });
-        epsR.set(k, m.epsR);
+        if (near) epsR.set(k, m.epsR);
       }
     }
     return { out, fractions, epsR };

@@ -278,7 +278,7 @@ function segmentsMeet(
 
 /**
  * Primitive of the half-chord √(r² − t²): ½(t·√(r² − t²) + r²·asin(t/r)), for |t| ≤ r
- * (Gradshteyn & Ryzhik, Table of Integrals, 2.271.3; from memory).
+ * (the substitution t = r·sin φ turns the integrand into r²·cos²φ).
  */
 function halfChordPrimitive(t: number, r: number): number {
   const u = Math.max(-1, Math.min(1, t / r));
@@ -289,8 +289,8 @@ function halfChordPrimitive(t: number, r: number): number {
  * Exact area of a circle (centre (cx, cy), radius r) inside a box, m², by integrating over
  * x the length of the vertical chord that lies between the box's y0 and y1. The chord's
  * ends are either the box's sides or ±√(r² − t²); the integration range is split where
- * they swap, so each piece is a sum of constants and √(r² − t²) with a closed-form
- * primitive (Gradshteyn & Ryzhik 2.271.3).
+ * they swap, so each piece is a sum of constants and √(r² − t²), whose primitive is
+ * closed-form (`halfChordPrimitive`).
  */
 function circleBoxArea(cx: number, cy: number, r: number, box: Box): number {
   if (!(r > 0)) return 0;
