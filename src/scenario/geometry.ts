@@ -277,20 +277,25 @@ function segmentsMeet(
 }
 
 /**
- * Primitive of the half-chord √(r² − t²): ½(t·√(r² − t²) + r²·asin(t/r)), for |t| ≤ r
- * (the substitution t = r·sin φ turns the integrand into r²·cos²φ).
+ * ∫ from u to v of the half-chord √(r² − t²) dt, for −r ≤ u ≤ v ≤ r: with t = r·sin θ the
+ * primitive is ½(t·√(r² − t²) + r²·θ). The difference θv − θu is taken as one atan2 of
+ * sin(θv − θu) and cos(θv − θu), and √(r² − t²) as √((r − t)(r + t)), so a piece next to
+ * the circle's edge (u near r) keeps its digits instead of cancelling asin values near π/2.
  */
-function halfChordPrimitive(t: number, r: number): number {
-  const u = Math.max(-1, Math.min(1, t / r));
-  return 0.5 * (t * Math.sqrt(Math.max(0, r * r - t * t)) + r * r * Math.asin(u));
+function halfChordIntegral(u: number, v: number, r: number): number {
+  const root = (t: number) => Math.sqrt(Math.max(0, (r - t) * (r + t)));
+  const ru = root(u);
+  const rv = root(v);
+  const angle = Math.atan2(v * ru - u * rv, ru * rv + u * v);
+  return 0.5 * (v * rv - u * ru) + 0.5 * r * r * angle;
 }
 
 /**
  * Exact area of a circle (centre (cx, cy), radius r) inside a box, m², by integrating over
  * x the length of the vertical chord that lies between the box's y0 and y1. The chord's
  * ends are either the box's sides or ±√(r² − t²); the integration range is split where
- * they swap, so each piece is a sum of constants and √(r² − t²), whose primitive is
- * closed-form (`halfChordPrimitive`).
+ * they swap, so each piece is a sum of constants and √(r² − t²), whose integral is
+ * closed-form (`halfChordIntegral`).
  */
 function circleBoxArea(cx: number, cy: number, r: number, box: Box): number {
   if (!(r > 0)) return 0;
@@ -316,7 +321,7 @@ function circleBoxArea(cx: number, cy: number, r: number, box: Box): number {
     const topIsChord = h < y1;
     const bottomIsChord = -h > y0;
     if ((topIsChord ? h : y1) <= (bottomIsChord ? -h : y0)) continue;
-    const chordIntegral = halfChordPrimitive(v, r) - halfChordPrimitive(u, r);
+    const chordIntegral = halfChordIntegral(u, v, r);
     const top = topIsChord ? chordIntegral : y1 * (v - u);
     const bottom = bottomIsChord ? -chordIntegral : y0 * (v - u);
     area += top - bottom;

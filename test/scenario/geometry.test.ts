@@ -26,6 +26,20 @@ describe('circle ∩ box area', () => {
     expect(areaInBox(c, { x0: -Infinity, y0: -Infinity, x1: Infinity, y1: Infinity })).toBeCloseTo(Math.PI * r * r, 17); // closed form: πr²
   });
 
+  it('is πr² for a circle inside one grid cell', () => {
+    const pin = circle(0.1502, 0.1498, 0.0003);
+    expect(areaInBox(pin, { x0: 0.1495, y0: 0.1495, x1: 0.1505, y1: 0.1505 })).toBeCloseTo(Math.PI * 0.0003 ** 2, 21); // closed form: πr² (the cell's right and bottom sides are tangent to the circle)
+  });
+
+  it('keeps its accuracy for a cell on the rim of a circle ten thousand cells across', () => {
+    const R = 10;
+    const h = 0.0005;
+    // The cell [R − h, R + h] × [−h, h] at the rightmost point; with √(R² − y²) = R − y²/2R − …,
+    // the area is 2h·h − h³/(3R) + O(h⁵/R³).
+    const expected = 2 * h * h - h ** 3 / (3 * R); // closed form: series of the segment, next term ~1e-22 m²
+    expect(areaInBox(circle(0, 0, R), { x0: R - h, y0: -h, x1: R + h, y1: h })).toBeCloseTo(expected, 17);
+  });
+
   it('gives half and quarter disks for boxes bounded by lines through the centre', () => {
     expect(areaInBox(c, { x0: 0.15, y0: 0, x1: 1, y1: 1 })).toBeCloseTo((Math.PI * r * r) / 2, 17); // closed form: πr²/2
     expect(areaInBox(c, { x0: 0, y0: 0, x1: 0.15, y1: 0.12 })).toBeCloseTo((Math.PI * r * r) / 4, 17); // closed form: πr²/4
