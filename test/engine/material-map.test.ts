@@ -110,7 +110,7 @@ describe('average fill', () => {
         expect(excessEps(list) / (5 - 1)).toBeCloseTo(discArea, 12); // closed form: πr², cells tile the plane
         const sigma = list.reduce((s, p) => s + (p.kind === 'medium' ? (p.medium.sigma ?? 0) * D * D : 0), 0);
         expect(sigma / 0.02).toBeCloseTo(discArea, 12); // closed form: πr²
-        for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeGreaterThan(1); // blends lie between 1 and 5
+        for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeGreaterThanOrEqual(1); // blends lie between 1 and 5 (a sliver may round to 1)
         for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeLessThanOrEqual(5);
       }
       expectSortedUnique(map);
