@@ -47,11 +47,11 @@ describe('staircase fill', () => {
   it('TMz: the conductor takes exactly the Ez nodes within the radius', () => {
     const { map } = build([rod]);
     const expected = pointsWhere(200, 0, 0, inRod); // README "Objects": a node belongs to the object holding its position
-    expect(ks(map.a, 'pec')).toEqual(expected);
-    expect(map.a.length).toBe(expected.length);
+    expect(ks(map.a, 'pec')).toEqual(expected); // direct count above
+    expect(map.a.length).toBe(expected.length); // direct count above
     expect(map.b).toEqual([]);
     expect(map.c).toEqual([]);
-    expect(map.nodesPerObject).toEqual([expected.length]);
+    expect(map.nodesPerObject).toEqual([expected.length]); // direct count above
     expect(map.smallCells).toBeUndefined();
   });
 
@@ -59,10 +59,10 @@ describe('staircase fill', () => {
     const { map } = build([rod], { polarization: 'TEz' });
     const ex = pointsWhere(200, 0, 0.5, inRod); // material-map.ts: b at (i·dx, (j+½)·dy)
     const ey = pointsWhere(200, 0.5, 0, inRod); // material-map.ts: c at ((i+½)·dx, j·dy)
-    expect(ks(map.b, 'pec')).toEqual(ex);
-    expect(ks(map.c, 'pec')).toEqual(ey);
+    expect(ks(map.b, 'pec')).toEqual(ex); // direct count above
+    expect(ks(map.c, 'pec')).toEqual(ey); // direct count above
     expect(map.a).toEqual([]); // Hz inside the metal has a zero curl for ever; no patch needed
-    expect(map.nodesPerObject).toEqual([ex.length + ey.length]);
+    expect(map.nodesPerObject).toEqual([ex.length + ey.length]); // direct count above
     expect(map.polarization).toBe('TEz');
   });
 
@@ -70,7 +70,7 @@ describe('staircase fill', () => {
     const wedge: SceneObject = { shape: 'polygon', points: [[0.05, 0.05], [0.12, 0.06], [0.09, 0.13], [0.07, 0.08]], material: { epsR: 3 } };
     const { map } = build([wedge]);
     const expected = pointsWhere(200, 0, 0, (x, y) => containsPoint(wedge, x, y)); // README "Objects": closed shapes
-    expect(ks(map.a)).toEqual(expected);
+    expect(ks(map.a)).toEqual(expected); // direct test with containsPoint above
     expect(expected).toContain(50 * 200 + 50); // the vertex (0.05, 0.05) sits on node (50, 50)
     expect(map.a.every((p) => p.kind === 'medium' && p.medium === wedge.material)).toBe(true);
   });
@@ -81,7 +81,7 @@ describe('staircase fill', () => {
     const { map } = build([block, core]);
     const inCore = pointsWhere(200, 0, 0, (x, y) => Math.hypot(x - 0.1, y - 0.1) <= 0.02 * (1 + 1e-12));
     const inBlock = pointsWhere(200, 0, 0, (x, y) => x >= 0.05 - 1e-12 && x <= 0.15 + 1e-12 && y >= 0.05 - 1e-12 && y <= 0.15 + 1e-12);
-    expect(ks(map.a, 'medium')).toEqual(inCore);
+    expect(ks(map.a, 'medium')).toEqual(inCore); // direct count above
     expect(map.nodesPerObject).toEqual([inBlock.length - inCore.length, inCore.length]); // README "Objects": later objects overlap earlier ones
     const patch = map.a.find((p) => p.kind === 'medium');
     expect(patch).toMatchObject({ medium: core.material }); // the object's medium, poles and all
@@ -111,7 +111,7 @@ describe('average fill', () => {
         const sigma = list.reduce((s, p) => s + (p.kind === 'medium' ? (p.medium.sigma ?? 0) * D * D : 0), 0);
         expect(sigma / 0.02).toBeCloseTo(discArea, 12); // closed form: πr²
         for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeGreaterThanOrEqual(1); // blends lie between 1 and 5 (a sliver may round to 1)
-        for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeLessThanOrEqual(5);
+        for (const p of list) if (p.kind === 'medium') expect(p.medium.epsR).toBeLessThanOrEqual(5); // blends are weighted means of 1 and 5
       }
       expectSortedUnique(map);
     }
@@ -165,8 +165,8 @@ describe('conformal fill, TMz', () => {
       for (const p of list) {
         expect(p.kind).toBe('conformal');
         const f = (p as { lengthFraction: number }).lengthFraction;
-        expect(f).toBeGreaterThan(0);
-        expect(f).toBeLessThan(1);
+        expect(f).toBeGreaterThan(0); // material-map.ts: 0 < f ≤ 1
+        expect(f).toBeLessThan(1); // an edge with f = 1 needs no patch
         expect(metal.has(p.k) !== metal.has(p.k + step)).toBe(true); // Dey & Mittra 1997: only edges with one end in the metal
       }
     }
@@ -178,11 +178,11 @@ describe('conformal fill, TMz', () => {
     const rod = circle(0.1, 0.1, 0.01095, 'pec');
     const coarse = build([rod], { fill: 'conformal' }).map;
     // Row of node (111, 100): c²dt²/dx²·(1/0.05 + 3·2) = 0.25·26 = 6.5 > 4 (module comment)
-    expect(ks(coarse.a, 'pec')).toContain(100 * 200 + 111);
+    expect(ks(coarse.a, 'pec')).toContain(100 * 200 + 111); // row above fails dt²·R ≤ 4
     expect(ks(coarse.c)).not.toContain(100 * 200 + 110);
     expect(coarse.smallCells?.dropped).toBeGreaterThanOrEqual(4); // the four symmetric nodes at least
     const fine = build([rod], { fill: 'conformal', courant: 0.1 }).map;
-    expect(ks(fine.a, 'pec')).not.toContain(100 * 200 + 111);
+    expect(ks(fine.a, 'pec')).not.toContain(100 * 200 + 111); // row 0.01·26 = 0.26 ≤ 4
     expect((fine.c.find((p) => p.k === 100 * 200 + 110) as { lengthFraction: number }).lengthFraction).toBeCloseTo(0.05, 8); // closed form: (0.111 − 0.11095)/0.001
     expect(fine.smallCells?.threshold).toBeCloseTo(0.01, 12); // ν² = (0.1·√2)² = 0.02; threshold ν²/2
   });
@@ -359,12 +359,12 @@ describe('conformal fill, TEz', () => {
     expect(right).toBe(1); // x = 0.1005 lies outside the metal
     expect(left).toBe(0); // x = 0.0995 lies in it
     expect(top).toBeCloseTo(0.2, 8); // closed form, as the area
-    expect(bottom).toBeCloseTo(0.2, 8);
+    expect(bottom).toBeCloseTo(0.2, 8); // closed form, as the area
     expect(map.c.find((p) => p.k === k - 1)).toEqual({ k: k - 1, kind: 'pec' }); // the left edge is wholly metal
     expect(map.b.find((p) => p.k === k)).toBeUndefined(); // the top edge keeps its field
     expect(map.a.find((p) => p.k === k - 1)).toBeUndefined(); // a wholly metal cell needs no patch
     // Its row: (1/0.2)·0.25·(1·2 + 0 + 0.2·2 + 0.2·2) = 3.5 ≤ 4 (module comment), kept though 0.2 < ν² = 0.5.
-    expect(map.smallCells?.threshold).toBeCloseTo(0.5, 12);
+    expect(map.smallCells?.threshold).toBeCloseTo(0.5, 12); // ν² = 0.5 (S = 0.5, square cells)
   });
 
   it('drops a cut cell whose row fails the bound', () => {
@@ -379,9 +379,9 @@ describe('conformal fill, TEz', () => {
     const cuts = map.a.filter((p) => p.kind === 'conformal') as { areaFraction: number; edgeFractions: number[] }[];
     expect(cuts.length).toBeGreaterThan(100);
     for (const p of cuts) {
-      expect(p.areaFraction).toBeGreaterThan(0);
-      expect(p.areaFraction).toBeLessThanOrEqual(1);
-      for (const f of p.edgeFractions) { expect(f).toBeGreaterThanOrEqual(0); expect(f).toBeLessThanOrEqual(1); }
+      expect(p.areaFraction).toBeGreaterThan(0); // material-map.ts: area fraction in (0, 1]
+      expect(p.areaFraction).toBeLessThanOrEqual(1); // material-map.ts: area fraction in (0, 1]
+      for (const f of p.edgeFractions) { expect(f).toBeGreaterThanOrEqual(0); expect(f).toBeLessThanOrEqual(1); } // fractions of a length lie in [0, 1]
     }
     expectSortedUnique(map);
   });

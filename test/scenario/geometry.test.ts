@@ -37,7 +37,7 @@ describe('circle ∩ box area', () => {
     // The cell [R − h, R + h] × [−h, h] at the rightmost point; with √(R² − y²) = R − y²/2R − …,
     // the area is 2h·h − h³/(3R) + O(h⁵/R³).
     const expected = 2 * h * h - h ** 3 / (3 * R); // closed form: series of the segment, next term ~1e-22 m²
-    expect(areaInBox(circle(0, 0, R), { x0: R - h, y0: -h, x1: R + h, y1: h })).toBeCloseTo(expected, 17);
+    expect(areaInBox(circle(0, 0, R), { x0: R - h, y0: -h, x1: R + h, y1: h })).toBeCloseTo(expected, 17); // closed form above
   });
 
   it('gives half and quarter disks for boxes bounded by lines through the centre', () => {
@@ -48,15 +48,15 @@ describe('circle ∩ box area', () => {
   it('gives the circular segment cut off by a line at distance h from the centre', () => {
     for (const h of [0, 0.002, 0.0055, 0.0099]) {
       const segment = r * r * Math.acos(h / r) - h * Math.sqrt(r * r - h * h); // closed form: segment area r²·acos(h/r) − h·√(r² − h²)
-      expect(areaInBox(c, { x0: 0, y0: 0.12 + h, x1: 1, y1: 1 })).toBeCloseTo(segment, 17);
-      expect(areaInBox(c, { x0: 0, y0: 0, x1: 0.15 - h, y1: 1 })).toBeCloseTo(segment, 17);
+      expect(areaInBox(c, { x0: 0, y0: 0.12 + h, x1: 1, y1: 1 })).toBeCloseTo(segment, 17); // closed form above, cut by y = y_c + h
+      expect(areaInBox(c, { x0: 0, y0: 0, x1: 0.15 - h, y1: 1 })).toBeCloseTo(segment, 17); // closed form above, cut by x = x_c − h
     }
   });
 
   it('gives the strip of a quarter disk between the centre line and height h', () => {
     for (const h of [0.001, 0.005, 0.0093]) {
       const strip = 0.5 * (h * Math.sqrt(r * r - h * h) + r * r * Math.asin(h / r)); // closed form: ∫₀ʰ √(r² − y²) dy
-      expect(areaInBox(c, { x0: 0.15, y0: 0.12, x1: 0.2, y1: 0.12 + h })).toBeCloseTo(strip, 17);
+      expect(areaInBox(c, { x0: 0.15, y0: 0.12, x1: 0.2, y1: 0.12 + h })).toBeCloseTo(strip, 17); // closed form above
     }
   });
 
@@ -183,14 +183,14 @@ describe('segments inside and outside shapes', () => {
     const l = poly(L_SHAPE);
     const row = segmentInside(l, -1, 2, 4, 2);
     expect(row.length).toBe(1); // hand-computed: inside for x ∈ [0, 1] only
-    expect(row[0][0]).toBeCloseTo(0.2, 14);
-    expect(row[0][1]).toBeCloseTo(0.4, 14);
+    expect(row[0][0]).toBeCloseTo(0.2, 14); // hand-computed: x = 0 at t = 1/5
+    expect(row[0][1]).toBeCloseTo(0.4, 14); // hand-computed: x = 1 at t = 2/5
     expect(segmentInside(l, -1, 0.5, 4, 0.5).length).toBe(1); // hand-computed: below the notch, one piece
     expect(lengthOutside(l, -1, 0.5, 4, 0.5)).toBeCloseTo(2, 14); // hand-computed: inside for x ∈ [0, 3]
     const diagonal = segmentInside(l, -1, -1, 4, 4);
     expect(diagonal.length).toBe(1); // hand-computed: inside from (0, 0) to (1, 1), the notch's corner
-    expect(diagonal[0][0]).toBeCloseTo(0.2, 14);
-    expect(diagonal[0][1]).toBeCloseTo(0.4, 14);
+    expect(diagonal[0][0]).toBeCloseTo(0.2, 14); // hand-computed: (0, 0) at t = 1/5
+    expect(diagonal[0][1]).toBeCloseTo(0.4, 14); // hand-computed: (1, 1) at t = 2/5
     expect(lengthOutside(l, 1.5, 1, 2.5, 1)).toBeCloseTo(0, 14); // along the notch's bottom edge: inside
     expect(lengthOutside(l, 0.5, 0.5, 0.5, 0.5)).toBe(0); // a point segment has no length
   });
@@ -221,7 +221,7 @@ describe('sharing a box among overlapping shapes', () => {
     const tilted = Math.hypot(0.3, 0.1);
     const lensTilted = 2 * r * r * Math.acos(tilted / (2 * r)) - (tilted / 2) * Math.sqrt(4 * r * r - tilted * tilted); // closed form, as above
     const [low] = layeredAreas([circle(0.35, 0.45, r), circle(0.65, 0.55, r)], { x0: 0, y0: 0, x1: 1, y1: 1 });
-    expect(Math.abs(low - (Math.PI * r * r - lensTilted))).toBeLessThan(1e-10);
+    expect(Math.abs(low - (Math.PI * r * r - lensTilted))).toBeLessThan(1e-10); // closed form above; Gauss–Legendre rows between crossings
     expect(Math.abs(first - (Math.PI * r * r - lens))).toBeLessThan(1e-10); // closed form above; Gauss–Legendre rows between crossings
   });
 
