@@ -307,7 +307,7 @@ function circleBoxArea(cx: number, cy: number, r: number, box: Box): number {
   const cuts = [xa, xb];
   for (const y of [y0, y1]) {
     if (Math.abs(y) >= r) continue;
-    const s = Math.sqrt(r * r - y * y);
+    const s = Math.sqrt((r - Math.abs(y)) * (r + Math.abs(y)));
     for (const t of [-s, s]) if (t > xa && t < xb) cuts.push(t);
   }
   cuts.sort((p, q) => p - q);
