@@ -22,7 +22,7 @@ export const AMPLITUDE_DEFAULT = 1;
 export const NAME_MAX_LENGTH = 40;
 
 /** What a number field holds, for messages: "give <what>, e.g. <example>". */
-interface FieldHint {
+export interface FieldHint {
   what: string;
   example: string;
   /** For fields with a default: how to get it, e.g. "leave it out for 1". */
@@ -43,7 +43,7 @@ function numberTypeMessage(input: unknown, h: FieldHint): string {
 }
 
 /** A finite number (zod 4 refuses NaN and ±Infinity as the wrong type). */
-function finiteNumber(h: FieldHint) {
+export function finiteNumber(h: FieldHint) {
   return z.number({ error: (iss) => numberTypeMessage(iss.input, h) });
 }
 
@@ -71,7 +71,7 @@ function wholeNumberAtLeast(min: number, h: FieldHint, why: string) {
 }
 
 /** Message for an object or list of the wrong type; `leaveOut` says what leaving it out gives. */
-function containerMessage(input: unknown, description: string, leaveOut?: string): string {
+export function containerMessage(input: unknown, description: string, leaveOut?: string): string {
   if (input === undefined) return `required; give ${description}`;
   return `expected ${description} but found ${describeValue(input)}${leaveOut ? `; or leave the field out ${leaveOut}` : ''}`;
 }
@@ -82,7 +82,7 @@ function objectOf<T extends z.core.$ZodLooseShape>(shape: T, description: string
   });
 }
 
-function listOf<T extends z.ZodType>(item: T, description: string, leaveOut?: string) {
+export function listOf<T extends z.ZodType>(item: T, description: string, leaveOut?: string) {
   return z.array(item, {
     error: (iss) => (iss.code === 'invalid_type' ? containerMessage(iss.input, description, leaveOut) : undefined),
   });
@@ -99,7 +99,7 @@ export function nameProblem(name: string): string | undefined {
   return undefined;
 }
 
-const nameField = z
+export const nameField = z
   .string({
     error: (iss) => iss.input === undefined
       ? `required; give a name of 1 to ${NAME_MAX_LENGTH} letters, digits, spaces, "_", "." or "-", e.g. "near"`
