@@ -6,6 +6,7 @@ import { runFiles } from '../io/outputs.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { energyLeftWarning, scenarioWarnings, type Warning } from '../scenario/warnings.ts';
+import { scenarioHash } from '../scenario/hash.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
@@ -27,9 +28,11 @@ Usage:
       Validate the scenario and print derived quantities (dt, cells per wavelength,
       stability margin, memory).
 ${studyUsage()}
-  --emit DIR writes each candidate as a scenario file plus study.json for a batch
-  scheduler (and runs nothing unless --out or --json is given too); --workers sets the
-  pool size (default: one per hardware thread).
+  --emit DIR writes every run of a study as a scenario file plus study.json for a batch
+  scheduler (and runs nothing unless --out or --json is given too); run each with
+  "gridgauge run FILE --out DIR/<name without .json>", then score them all with
+  --from DIR instead of running them here. --workers sets the pool size (default: one per
+  hardware thread).
   gridgauge bench [--json]
       Measure engine speed (Mcells/s) against a plain TypeScript kernel.
 
@@ -44,7 +47,7 @@ function studyUsage(): string {
       const text = o.flag ? `--${o.name}` : `--${o.name} ${o.metavar ?? 'N'}`;
       return o.required ? text : `[${text}]`;
     });
-    const usage = `  gridgauge ${d.verb} FILE ${[...own, '[--out DIR]', '[--json]', '[--emit DIR]', '[--workers N]'].join(' ')}`;
+    const usage = `  gridgauge ${d.verb} FILE ${[...own, '[--out DIR]', '[--json]', '[--emit DIR]', '[--from DIR]', '[--workers N]'].join(' ')}`;
     return `${usage}\n${wrap(d.summary, 6)}`;
   }).join('\n');
 }
@@ -113,6 +116,7 @@ async function commandRun(args: ParsedArgs): Promise<number> {
     run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies,
     ...(blowUp ? { stopped: blowUp } : interrupted ? { stopped: { step: sim.stepsDone, reason: 'interrupted' } } : {}),
     warnings,
+    scenario_hash: scenarioHash(scenario),
   });
   if (outDir) await writeFiles(outDir, files);
   if (json) {

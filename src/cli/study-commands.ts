@@ -6,8 +6,10 @@
  * cancels and still reports and writes the candidates that finished (exit 130).
  */
 import { jsonForOutput } from '../io/csv.ts';
+import { folderRunner } from '../io/run-folders.ts';
 import { emitFiles, studyFiles } from '../io/study-files.ts';
-import type { AnyStudyDefinition } from '../studies/definition.ts';
+import { emitPlan, plannedRuns } from '../studies/batch.ts';
+import type { AnyStudyDefinition, StudyPlan } from '../studies/definition.ts';
 import { createNodePool, hardwareThreads } from '../studies/node-pool.ts';
 import type { StudyProgress } from '../studies/progress.ts';
 import { runStudy } from '../studies/run-study.ts';
@@ -17,7 +19,7 @@ import { note, out, writeFiles } from './output.ts';
 import { ProgressBar } from './progress.ts';
 
 /** Options every study verb takes besides its own. */
-export const COMMON_STUDY_OPTIONS = { valued: ['out', 'emit', 'workers'], flags: ['json'] } as const;
+export const COMMON_STUDY_OPTIONS = { valued: ['out', 'emit', 'workers', 'from'], flags: ['json'] } as const;
 
 /** The study's own options offered on the command line. */
 export function cliOptions(d: AnyStudyDefinition) {
@@ -107,7 +109,7 @@ export async function studyCommand(d: AnyStudyDefinition, args: ParsedArgs): Pro
   }
 
   if (emitDir) {
-    const files = emitFiles(d.emit(plan));
+    const files = emitFiles(emitPlan(d, plan as StudyPlan));
     await writeFiles(emitDir, files);
     const message = `wrote ${Object.keys(files).length} files to ${emitDir}: ${d.emitted(plan)}`;
     if (!outDir && !json) {
@@ -117,16 +119,22 @@ export async function studyCommand(d: AnyStudyDefinition, args: ParsedArgs): Pro
     note(message);
   }
 
-  const pool = createNodePool(workers);
-  const planned = plan as { candidates: unknown[]; shared: unknown[] };
-  const runs = planned.candidates.length + planned.shared.length;
-  note(`${d.id} study: ${runs} runs: ${planned.candidates.length} candidates${planned.shared.length && d.sharedRuns ? ` and ${d.sharedRuns}` : ''}`);
+  const fromDir = textOption(args, 'from');
+  const runner = fromDir ? folderRunner(fromDir, plannedRuns(d, plan as StudyPlan)) : createNodePool(workers);
+  const planned = plan as StudyPlan;
+  const runs = planned.candidates.reduce((n, c) => n + c.jobs.length, 0) + planned.shared.length;
+  note(`${d.id} study: ${runs} runs${fromDir ? ` read from ${fromDir}` : ''}: ${planned.candidates.length} candidates${planned.shared.length && d.sharedRuns ? ` and ${d.sharedRuns}` : ''}`);
+  const failures: string[] = [];
   let run: { result: unknown; interrupted: boolean };
   try {
-    run = await withProgress(`${d.id} study`, (signal, onProgress) => runStudy(d, plan, pool, { signal, onProgress }));
+    run = await withProgress(`${d.id} study`, (signal, onProgress) => runStudy(d, plan, runner, {
+      signal, onProgress,
+      onCandidate: (c) => { const e = (c as { error?: string }).error; if (fromDir && e) failures.push(e); },
+    }));
   } finally {
-    pool.dispose();
+    if ('dispose' in runner) (runner as { dispose(): void }).dispose();
   }
+  for (const f of failures) note(`failed: ${f}`);
   const { result, interrupted } = run;
   const files = studyFiles(d.outputs(result));
   if (outDir) await writeFiles(outDir, files);

@@ -3,7 +3,6 @@
  * scores each candidate's probe series against the reference run, recommends the fewest
  * cells meeting the target, and describes its table, files and emitted runs.
  */
-import type { Scenario } from '../scenario/types.ts';
 import { formatBytes } from '../scenario/units.ts';
 import {
   ABSORBER_SWEEP_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, gradingKey, planAbsorberStudy, recommendAbsorber,
@@ -245,12 +244,12 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
     { name: 'target', label: 'Target (dB)', metavar: 'DB', help: 'largest acceptable reflection error, a negative number of dB', defaultText: String(ABSORBER_SWEEP_DEFAULTS.target_dB) },
     { name: 'basis', label: 'Recommend on', help: 'worst-case: probes along the layer and a long window too; probes: your own probes only', defaultText: 'worst-case', choices: ['worst-case', 'probes'], metavar: 'worst-case|probes' },
     { name: 'long-run', label: 'Long window (× steps)', help: 'the long-run check\'s window in multiples of your steps; 0 leaves it out', defaultText: String(ABSORBER_SWEEP_DEFAULTS.longFactor), metavar: 'FACTOR' },
-    { name: 'cells', label: 'Layer cells swept', help: 'thicknesses swept with each grading', defaultText: ABSORBER_SWEEP_DEFAULTS.cells.join(', '), where: 'page' },
-    { name: 'grading-cells', label: 'Cells for the grading grids', help: 'thickness at which orders, σ, κ and α are swept', defaultText: ABSORBER_SWEEP_DEFAULTS.gradingCells.join(', '), where: 'page' },
-    { name: 'orders', label: 'Orders m', help: 'polynomial grading orders', defaultText: ABSORBER_SWEEP_DEFAULTS.orders.join(', '), where: 'page' },
-    { name: 'sigma-scales', label: 'sigmaScale values', help: 'σmax as a multiple of σopt', defaultText: ABSORBER_SWEEP_DEFAULTS.sigmaScales.join(', '), where: 'page' },
-    { name: 'kappa-maxes', label: 'kappaMax values', help: 'largest real stretch κ', defaultText: ABSORBER_SWEEP_DEFAULTS.kappaMaxes.join(', '), where: 'page' },
-    { name: 'alpha-maxes', label: 'alphaMax values (S/m)', help: 'largest frequency shift α', defaultText: ABSORBER_SWEEP_DEFAULTS.alphaMaxes.join(', '), where: 'page' },
+    { name: 'cells', label: 'Layer cells swept', help: 'thicknesses swept with each grading', defaultText: ABSORBER_SWEEP_DEFAULTS.cells.join(', ') },
+    { name: 'grading-cells', label: 'Cells for the grading grids', help: 'thickness at which orders, σ, κ and α are swept', defaultText: ABSORBER_SWEEP_DEFAULTS.gradingCells.join(', ') },
+    { name: 'orders', label: 'Orders m', help: 'polynomial grading orders', defaultText: ABSORBER_SWEEP_DEFAULTS.orders.join(', ') },
+    { name: 'sigma-scales', label: 'sigmaScale values', help: 'σmax as a multiple of σopt', defaultText: ABSORBER_SWEEP_DEFAULTS.sigmaScales.join(', ') },
+    { name: 'kappa-maxes', label: 'kappaMax values', help: 'largest real stretch κ', defaultText: ABSORBER_SWEEP_DEFAULTS.kappaMaxes.join(', ') },
+    { name: 'alpha-maxes', label: 'alphaMax values (S/m)', help: 'largest frequency shift α', defaultText: ABSORBER_SWEEP_DEFAULTS.alphaMaxes.join(', ') },
   ],
   readOptions(values) {
     const problems: string[] = [];
@@ -349,27 +348,29 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
   noneMeets: (r) => `no candidate meets the target ${r.target_dB} dB: recommended is null`,
   outputs: absorberOutputs,
   json: absorberJsonObject,
-  emit(plan) {
-    const scenarios: Record<string, Scenario> = { 'reference.json': plan.reference };
-    const entries = plan.candidates.map((c) => {
-      const a = c.absorber;
-      const name = `absorber-${fileSafe(a.cells)}-m${fileSafe(a.order)}-s${fileSafe(a.sigmaScale)}-k${fileSafe(a.kappaMax)}-a${fileSafe(a.alphaMax)}.json`;
-      scenarios[name] = c.scenario;
-      return { file: name, ...a, current: c.isCurrent, theory_dB: c.theory_dB, memory_bytes: c.memory_bytes };
-    });
+  jobFiles(plan) {
+    const name = (a: AbsorberGrading & { cells: number }) =>
+      `absorber-${fileSafe(a.cells)}-m${fileSafe(a.order)}-s${fileSafe(a.sigmaScale)}-k${fileSafe(a.kappaMax)}-a${fileSafe(a.alphaMax)}`;
     return {
-      scenarios,
-      manifest: {
-        study: 'absorber',
-        target_dB: plan.target_dB,
-        basis: plan.basis,
-        reference: 'reference.json',
-        scoring: 'for each candidate and each probe: max_n |E[n] - Eref[n]| / max_n |Eref[n]| with Eref from reference.json; the candidate\'s figure is the largest over probes, 20*log10',
-        candidates: entries,
-      },
+      shared: ['reference.json', 'reference-long.json'].slice(0, plan.shared.length),
+      candidates: plan.candidates.map((c) => [`${name(c.absorber)}.json`, `${name(c.absorber)}-long.json`].slice(0, c.jobs.length)),
     };
   },
-  emitted: (plan) => `reference.json, ${plan.candidates.length} candidate scenarios and study.json`,
+  manifest(plan) {
+    return {
+      study: 'absorber',
+      target_dB: plan.target_dB,
+      basis: plan.basis,
+      reference: 'reference.json',
+      scoring: 'for each candidate and each probe: max_n |E[n] - Eref[n]| / max_n |Eref[n]| with Eref from reference.json; the candidate\'s figure is the largest over probes, 20*log10',
+      candidates: plan.candidates.map((c) => {
+        const a = c.absorber;
+        const file = `absorber-${fileSafe(a.cells)}-m${fileSafe(a.order)}-s${fileSafe(a.sigmaScale)}-k${fileSafe(a.kappaMax)}-a${fileSafe(a.alphaMax)}.json`;
+        return { file, ...a, current: c.isCurrent, theory_dB: c.theory_dB, memory_bytes: c.memory_bytes };
+      }),
+    };
+  },
+  emitted: (plan) => `${plan.shared.length === 2 ? 'reference.json, reference-long.json' : 'reference.json'}, ${plan.candidates.length} candidates (${plan.candidates[0]?.jobs.length ?? 1} run${plan.candidates[0]?.jobs.length === 1 ? '' : 's'} each) and study.json`,
   apply: (scenario, _plan, pick) => applyAbsorber(scenario, absorberOf(pick)),
   charts: absorberCharts,
   sharedRuns: 'the reference grid',

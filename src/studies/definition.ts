@@ -138,8 +138,14 @@ export interface StudyDefinition<O = unknown, CP extends PlannedCandidate = Plan
   outputs(result: R): StudyOutput[];
   /** What `--json` prints (the study's JSON file's object). */
   json(result: R): unknown;
-  /** The runs as scenario files for a batch scheduler. */
-  emit(plan: P): EmitPlan;
+  /**
+   * File names of the runs for a batch scheduler (`--emit`): one per shared run and one per
+   * candidate run, in the plan's order. Each is run anywhere with
+   * `gridgauge run FILE --out DIR/<name without .json>` and read back by `--from DIR`.
+   */
+  jobFiles(plan: P): { shared: string[]; candidates: string[][] };
+  /** The study's own part of study.json: what it is, its budget, how each run is scored. */
+  manifest(plan: P): Record<string, unknown>;
   /** What `--emit` wrote, in words (after "wrote N files to DIR: "). */
   emitted(plan: P): string;
   /** The user's scenario with a recommendation applied (the page's Apply button). */

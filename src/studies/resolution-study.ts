@@ -317,30 +317,20 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
   noneMeets: (r) => `no resolution meets the budget ${r.budget_deg}° across ${r.size_wavelengths} wavelengths: recommended is null`,
   outputs: resolutionOutputs,
   json: resolutionJsonObject,
-  emit(plan) {
-    const scenarios: Record<string, Scenario> = {};
-    const entries = plan.candidates.map((c) => {
-      const name = `resolution-${fileSafe(c.cellsPerWavelength)}.json`;
-      scenarios[name] = c.scenario;
-      return {
-        file: name, cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m,
-        predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
-        predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
-      };
-    });
-    return {
-      scenarios,
-      manifest: {
-        study: 'resolution',
-        budget_deg: plan.budget_deg,
-        size_wavelengths: plan.size_wavelengths,
-        frequency_Hz: plan.frequency_Hz,
-        scoring: 'run each file; from lines.csv fit phase_err_deg against rho_m by least squares on each line; lag per wavelength = -slope * wavelength_m; projected error = worst line * size_wavelengths',
-        wavelength_m: plan.wavelength_m,
-        candidates: entries,
-      },
-    };
-  },
+  jobFiles: (plan) => ({ shared: [], candidates: plan.candidates.map((c) => [`resolution-${fileSafe(c.cellsPerWavelength)}.json`]) }),
+  manifest: (plan) => ({
+    study: 'resolution',
+    budget_deg: plan.budget_deg,
+    size_wavelengths: plan.size_wavelengths,
+    frequency_Hz: plan.frequency_Hz,
+    scoring: 'run each file; from lines.csv fit phase_err_deg against rho_m by least squares on each line; lag per wavelength = -slope * wavelength_m; projected error = worst line * size_wavelengths',
+    wavelength_m: plan.wavelength_m,
+    candidates: plan.candidates.map((c) => ({
+      file: `resolution-${fileSafe(c.cellsPerWavelength)}.json`, cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m,
+      predicted_axis_deg_per_wavelength: Math.max(c.predicted.x, c.predicted.y),
+      predicted_diagonal_deg_per_wavelength: c.predicted.diagonal,
+    })),
+  }),
   emitted: (plan) => `${plan.candidates.length} measurement scenarios and study.json`,
   apply: (scenario, plan, pick) => applyResolution(scenario, pick.cellsPerWavelength, plan.frequency_Hz),
   charts: resolutionCharts,
