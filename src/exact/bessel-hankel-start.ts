@@ -17,9 +17,10 @@
  */
 import type { Complex } from './complex.ts';
 
-/** Below this |z| the power series take over; at or above LARGE_ARGUMENT the expansion. */
+/** Below this |z| the power series take over. */
 export const SMALL_ARGUMENT = 2;
-const LARGE_ARGUMENT = 25;
+/** From this |z| on Hankel's expansions serve: their smallest term, about e^{−2|z|}, is 2e-22 there. */
+export const LARGE_ARGUMENT = 25;
 
 const STEP = 0.2;
 const NODES = 36; // s = 0, 0.2, …, 7.0; e^{−49} ≈ 5e-22 is the truncation error
@@ -36,7 +37,7 @@ const NODE_WEIGHTS = NODE_SQUARES.map((s2, j) => (j === 0 ? 1 : 2) * STEP * Math
  * hankel2StartScaled([10, 0]); // [[-0.2459357644513483, -0.05567116728359939], [0.04347274616886144, 0.24901542420695388]]
  */
 export function hankel2StartScaled(z: Complex): [Complex, Complex] {
-  return Math.hypot(z[0], z[1]) >= LARGE_ARGUMENT ? hankelExpansion(z) : hankelIntegral(z);
+  return Math.hypot(z[0], z[1]) >= LARGE_ARGUMENT ? hankelExpansion(z).h2 : hankelIntegral(z);
 }
 
 /** e^{−j·Re z}·e^{jθ} without forming Re z − θ, which would round away digits of a large Re z. */
@@ -60,43 +61,71 @@ function sqrtC(r: number, i: number): Complex {
 }
 
 /**
- * H_ν^(2)(z) ~ (2/(πz))^{1/2} e^{−j(z − νπ/2 − π/4)} Σ_k (−j)^k a_k(ν)/z^k, with
- * a_k(ν) = a_{k−1}(ν)·(4ν² − (2k−1)²)/(8k) (DLMF 10.17.4, 10.17.1), summed until the terms
- * stop shrinking or fall below a quarter ulp of the sum.
+ * [J0(z)·e^{−|Im z|}, J1(z)·e^{−|Im z|}] for |z| ≥ 25 in the closed fourth quadrant, as
+ * (H^(1) + H^(2))/2 (DLMF 10.4.4) from Hankel's expansions of both (DLMF 10.17.3, 10.17.4, both
+ * valid there). Miller's algorithm is anchored on these two at large |z|: they are good to a
+ * few ulps, where its own normalising sum gathers rounding from about |z| terms.
+ *
+ * @param z - argument, dimensionless, Re z ≥ 0, Im z ≤ 0, |z| ≥ 25
+ * @returns the two scaled values
+ * @example
+ * besselJ01LargeScaled([100, 0]); // [[0.019985850304223122, 0], [-0.07714535201411216, 0]]
  */
-function hankelExpansion(z: Complex): [Complex, Complex] {
+export function besselJ01LargeScaled(z: Complex): [Complex, Complex] {
+  const { h1, h2 } = hankelExpansion(z);
+  const damp = Math.exp(2 * z[1]); // H^(2)·e^{−|Im z|} = (its scaled value)·e^{−2|Im z|}
+  return [0, 1].map((nu) => [(h1[nu][0] + damp * h2[nu][0]) / 2, (h1[nu][1] + damp * h2[nu][1]) / 2]) as [Complex, Complex];
+}
+
+/**
+ * H_ν^(2)(z) ~ (2/(πz))^{1/2} e^{−j(z − νπ/2 − π/4)} Σ_k (−j)^k a_k(ν)/z^k and
+ * H_ν^(1)(z) ~ (2/(πz))^{1/2} e^{+j(z − νπ/2 − π/4)} Σ_k j^k a_k(ν)/z^k, with
+ * a_k(ν) = a_{k−1}(ν)·(4ν² − (2k−1)²)/(8k) (DLMF 10.17.3, 10.17.4, 10.17.1), summed until the
+ * terms stop shrinking or fall below a quarter ulp of the sum; for ν = 0, 1. H^(2) comes
+ * scaled by e^{−Im z}, H^(1) by e^{Im z} (e^{−|Im z|} here).
+ */
+function hankelExpansion(z: Complex): { h1: [Complex, Complex]; h2: [Complex, Complex] } {
   const [zr, zi] = z;
   const m2 = zr * zr + zi * zi;
   const invR = zr / m2; // 1/z
   const invI = -zi / m2;
   const amp = sqrtC((2 / Math.PI) * invR, (2 / Math.PI) * invI);
-  const out: Complex[] = [];
+  const h1: Complex[] = [];
+  const h2: Complex[] = [];
   for (const nu of [0, 1]) {
-    let tr = 1;
+    let tr = 1; // a_k/z^k
     let ti = 0;
-    let sr = 1;
+    let sr = 1; // Σ (−j)^k a_k/z^k
     let si = 0;
+    let ur = 1; // Σ j^k a_k/z^k
+    let ui = 0;
     let last = 1;
     for (let k = 1; k < 100; k++) {
       const f = (4 * nu * nu - (2 * k - 1) ** 2) / (8 * k);
-      // t ← t·(−j)·f/z
-      const ar = tr * invR - ti * invI;
-      const ai = tr * invI + ti * invR;
-      tr = f * ai;
-      ti = -f * ar;
+      const ar = f * (tr * invR - ti * invI);
+      ti = f * (tr * invI + ti * invR);
+      tr = ar;
       const size = Math.abs(tr) + Math.abs(ti);
       if (size >= last) break;
-      sr += tr;
-      si += ti;
+      // (−j)^k t and j^k t
+      switch (k & 3) {
+        case 1: sr += ti; si -= tr; ur -= ti; ui += tr; break;
+        case 2: sr -= tr; si -= ti; ur -= tr; ui -= ti; break;
+        case 3: sr -= ti; si += tr; ur += ti; ui -= tr; break;
+        default: sr += tr; si += ti; ur += tr; ui += ti; break;
+      }
       last = size;
-      if (size <= 2 ** -56 * (Math.abs(sr) + Math.abs(si))) break;
+      if (size <= 2 ** -56 * Math.min(Math.abs(sr) + Math.abs(si), Math.abs(ur) + Math.abs(ui))) break;
     }
-    const [pr, pi] = phaseFactor(zr, (nu * Math.PI) / 2 + Math.PI / 4);
-    const ur = amp[0] * pr - amp[1] * pi;
-    const ui = amp[0] * pi + amp[1] * pr;
-    out.push([ur * sr - ui * si, ur * si + ui * sr]);
+    const [pr, pi] = phaseFactor(zr, (nu * Math.PI) / 2 + Math.PI / 4); // e^{−j(Re z − θ)}
+    const ar = amp[0] * pr - amp[1] * pi;
+    const ai = amp[0] * pi + amp[1] * pr;
+    h2.push([ar * sr - ai * si, ar * si + ai * sr]);
+    const br = amp[0] * pr + amp[1] * pi; // amp·conj(phase)
+    const bi = amp[1] * pr - amp[0] * pi;
+    h1.push([br * ur - bi * ui, br * ui + bi * ur]);
   }
-  return [out[0], out[1]];
+  return { h1: [h1[0], h1[1]], h2: [h2[0], h2[1]] };
 }
 
 /**

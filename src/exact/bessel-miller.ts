@@ -9,25 +9,28 @@
 import type { Complex } from './complex.ts';
 
 /**
- * Order N at which to start the backward recurrence so that J_0..J_nMax come out to about
- * 1e-17 relative. A trial solution q with q_{k0} = 0, q_{k0+1} = 1 is run forward from
- * k0 = max(nMax, |z|) until |q| ≥ 1e10·max(1, |z|)^{1/3}. Miller's error at order k0 is
- * |J_{N}H_{N}|·|J_{k0}H_{k0}|·(π|z|/2)²/|q_N|² (from the Casoratian J_{k+1}H_k − J_kH_{k+1}
- * = −2j/(πz), DLMF 10.5.5), and |J_n H_n^(2)| ≲ 0.6|z|^{−2/3} past the turning point
- * n ≈ |z|, so the threshold leaves it near 1e-20 (the method of Olver's and Gautschi's
- * forward test; Gautschi, SIAM Review 9(1), 1967).
+ * Order N at which to start the backward recurrence so that J_0..J_nMax and their normalising
+ * sum come out to about 1e-17 relative. A trial solution q with q_{k0} = 0, q_{k0+1} = 1 is run
+ * forward from k0 = max(nMax, |z|) until |q| ≥ 1e17. Started at N, the recurrence yields
+ * J_k − (J_{N+1}/H_{N+1})·H_k for any second solution H; by the Casoratian
+ * J_{k+1}H_k − J_kH_{k+1} = −2j/(πz) (DLMF 10.5.5) the forward-grown q_N is about
+ * (π|z|/2)·J_{k0}·H_N, and J_N·H_N ≈ 1/(πN) past the turning point, so
+ * |J_N| ≈ |z|·|J_{k0}|/(2N·|q_N|). That is the size of the terms the normalising sum gets
+ * wrong (its terms near N carry the H_k contamination, which is as large as J_N itself), and
+ * the threshold puts it near 1e-17 of J_{k0}; the error at the orders wanted is far smaller
+ * (the forward test of Olver's and Gautschi's method; Gautschi, SIAM Review 9(1), 1967).
  *
  * @param nMax - highest order wanted, integer ≥ 0
  * @param z - argument, dimensionless, z ≠ 0
  * @returns the starting order N > nMax
  * @example
- * millerStartOrder(0, [1, 0]); // 9
+ * millerStartOrder(0, [1, 0]); // 14
  */
 export function millerStartOrder(nMax: number, z: Complex): number {
   const size = Math.hypot(z[0], z[1]);
   const k0 = Math.max(nMax, Math.ceil(size));
   if (size < 1e-100) return k0 + 3; // each order down multiplies the error by (z/2k)²
-  const threshold = 1e10 * Math.cbrt(Math.max(1, size));
+  const threshold = 1e17;
   const m2 = z[0] * z[0] + z[1] * z[1];
   const invR = z[0] / m2;
   const invI = -z[1] / m2;
@@ -60,15 +63,19 @@ export function millerStartOrder(nMax: number, z: Complex): number {
  * ratios, and J_0 with r_1, stay consistent to full precision, because they all come from the
  * same numbers.
  *
+ * Given `anchor` = [J0, J1]·e^{−|Im z|} from elsewhere, J0 is fitted to it instead (least
+ * squares on the chain's 1 and r_1, which keeps the two consistent).
+ *
  * @param nMax - highest order, integer ≥ 0
  * @param z - argument, dimensionless, any complex z ≠ 0
+ * @param anchor - optional [J0, J1]·e^{−|Im z|}
  * @returns ratios (length nMax + 1, entry n = J_n/J_{n−1}, entry 0 NaN) and j0Scaled
  * @example
  * besselJRatioChain(1, [1, 0]).ratios[1]; // ≈ [0.5750803, 0]  (J1(1)/J0(1))
  */
-export function besselJRatioChain(nMax: number, z: Complex): { ratios: Complex[]; j0Scaled: Complex } {
-  const start = millerStartOrder(nMax, z);
-  const ratios: Complex[] = new Array(nMax + 1);
+export function besselJRatioChain(nMax: number, z: Complex, anchor?: [Complex, Complex]): { ratios: Complex[]; j0Scaled: Complex } {
+  const start = millerStartOrder(Math.max(nMax, 1), z);
+  const ratios: Complex[] = new Array(Math.max(nMax, 1) + 1);
   ratios[0] = [Number.NaN, Number.NaN];
   const sign = z[1] > 0 ? -1 : 1;
   let rr = 0;
@@ -84,7 +91,7 @@ export function besselJRatioChain(nMax: number, z: Complex): { ratios: Complex[]
     const nr = (ar * dr + ai * di) / d2;
     ri = (ai * dr - ar * di) / d2;
     rr = nr;
-    if (n <= nMax) ratios[n] = [rr, ri];
+    if (n < ratios.length) ratios[n] = [rr, ri];
     // T_n = 1 + (±j)·r_n·T_{n+1}; at n = 1 the weight is 2 and the 1 is J_0's own term
     const pr = rr * tr - ri * ti;
     const pi = rr * ti + ri * tr;
@@ -92,6 +99,7 @@ export function besselJRatioChain(nMax: number, z: Complex): { ratios: Complex[]
     tr = 1 - sign * w * pi;
     ti = sign * w * pr;
   }
+  if (anchor) return { ratios: ratios.slice(0, nMax + 1), j0Scaled: anchorFactor([1, 0], ratios[1], anchor) };
   // J_0·e^{−|Im z|} = e^{±j Re z}/S
   const cr = Math.cos(z[0]);
   const ci = sign * Math.sin(z[0]);
@@ -99,7 +107,21 @@ export function besselJRatioChain(nMax: number, z: Complex): { ratios: Complex[]
   const sr = tr / m;
   const si = ti / m;
   const s2 = (sr * sr + si * si) * m;
-  return { ratios, j0Scaled: [(cr * sr + ci * si) / s2, (ci * sr - cr * si) / s2] };
+  return { ratios: ratios.slice(0, nMax + 1), j0Scaled: [(cr * sr + ci * si) / s2, (ci * sr - cr * si) / s2] };
+}
+
+/**
+ * The factor α minimising |α·f0 − a0|² + |α·f1 − a1|²: scales a trial solution onto two known
+ * values (a zero of one of J0, J1 costs nothing, since they never vanish together).
+ */
+function anchorFactor(f0: Complex, f1: Complex, anchor: [Complex, Complex]): Complex {
+  const m = Math.max(Math.abs(f0[0]), Math.abs(f0[1]), Math.abs(f1[0]), Math.abs(f1[1]));
+  const [g0r, g0i, g1r, g1i] = [f0[0] / m, f0[1] / m, f1[0] / m, f1[1] / m];
+  const [a0, a1] = anchor;
+  const nr = g0r * a0[0] + g0i * a0[1] + g1r * a1[0] + g1i * a1[1]; // conj(g0)a0 + conj(g1)a1
+  const ni = g0r * a0[1] - g0i * a0[0] + g1r * a1[1] - g1i * a1[0];
+  const d = (g0r * g0r + g0i * g0i + g1r * g1r + g1i * g1i) * m;
+  return [nr / d, ni / d];
 }
 
 /** Above this size the trial values are scaled down (by 2^−600) to stay finite. */
@@ -111,13 +133,16 @@ const RESCALE_AT = 2 ** 600;
  * so the result is finite for every finite z; orders whose scaled value is below the
  * smallest double come out as 0.
  *
- * @param nMax - highest order, integer ≥ 0
+ * Given `anchor` = [J0, J1]·e^{−|Im z|} from elsewhere, the scale is fitted to it instead.
+ *
+ * @param nMax - highest order, integer ≥ 1
  * @param z - argument, dimensionless, z ≠ 0 (accurate for |z| ≳ 1; the power series serve below)
+ * @param anchor - optional [J0, J1]·e^{−|Im z|}
  * @returns J_n(z)·e^{−|Im z|} for n = 0..nMax
  * @example
- * besselJScaledMiller(0, [0, -5])[0]; // ≈ [0.1835408126, 0]  (e^{−5}·I0(5))
+ * besselJScaledMiller(1, [0, -5])[0]; // ≈ [0.1835408126, 0]  (e^{−5}·I0(5))
  */
-export function besselJScaledMiller(nMax: number, z: Complex): Complex[] {
+export function besselJScaledMiller(nMax: number, z: Complex, anchor?: [Complex, Complex]): Complex[] {
   const start = millerStartOrder(nMax, z);
   const m2 = z[0] * z[0] + z[1] * z[1];
   const invR = z[0] / m2;
@@ -162,6 +187,10 @@ export function besselJScaledMiller(nMax: number, z: Complex): Complex[] {
         outI[j] *= s;
       }
     }
+  }
+  if (anchor) {
+    const [gr, gi] = anchorFactor([outR[0], outI[0]], [outR[1], outI[1]], anchor);
+    return Array.from({ length: nMax + 1 }, (_, k) => [outR[k] * gr - outI[k] * gi, outR[k] * gi + outI[k] * gr] as Complex);
   }
   // J_k e^{−|Im z|} = f_k·e^{±j Re z}/S
   const pr = Math.cos(z[0]);

@@ -24,7 +24,7 @@
  * where the true value is beyond the double range; the scaled variants never do.
  */
 import type { Complex } from './complex.ts';
-import { SMALL_ARGUMENT, hankel2StartScaled } from './bessel-hankel-start.ts';
+import { LARGE_ARGUMENT, SMALL_ARGUMENT, besselJ01LargeScaled, hankel2StartScaled } from './bessel-hankel-start.ts';
 import { besselJRatioChain, besselJScaledMiller } from './bessel-miller.ts';
 import { besselJSeriesSequence, besselY01Series } from './bessel-series.ts';
 
@@ -201,7 +201,7 @@ export function hankel2Scaled(n: number, z: Complex): Complex {
 export function besselJRatioSequence(nMax: number, z: Complex): RatioSequence {
   checkOrder(nMax, 'nMax');
   checkNonZeroFinite(z);
-  const { ratios, j0Scaled } = besselJRatioChain(nMax, z);
+  const { ratios, j0Scaled } = besselJRatioChain(nMax, z, largeAnchor(z));
   return { first: j0Scaled, logScale: Math.abs(z[1]), ratios };
 }
 
@@ -253,6 +253,21 @@ function checkNonZeroFinite(z: Complex): void {
   if (!Number.isFinite(z[0]) || !Number.isFinite(z[1]) || (z[0] === 0 && z[1] === 0)) {
     throw new RangeError(`bessel: argument must be finite and non-zero, got [${z[0]}, ${z[1]}]`);
   }
+}
+
+/**
+ * [J0, J1]·e^{−|Im z|} from Hankel's expansions for |z| ≥ 25, mapped from the fourth quadrant
+ * by J_n(z̄) = conj J_n(z) and J_n(−z) = (−1)^n J_n(z) (DLMF 10.11.9, 10.11.1); else undefined.
+ */
+function largeAnchor(z: Complex): [Complex, Complex] | undefined {
+  if (Math.hypot(z[0], z[1]) < LARGE_ARGUMENT) return undefined;
+  const [a, b] = besselJ01LargeScaled([Math.abs(z[0]), -Math.abs(z[1])]);
+  const flip = z[1] > 0 !== z[0] < 0; // one reflection of the two: conjugate
+  const sign = z[0] < 0 ? -1 : 1; // J1 is odd
+  return [
+    flip ? [a[0], -a[1]] : a,
+    flip ? [sign * b[0], -sign * b[1]] : [sign * b[0], sign * b[1]],
+  ];
 }
 
 type Family = 'j' | 'y' | 'h2';
@@ -338,7 +353,11 @@ function scaledSequences(nMax: number, z: Complex): ScaledSequences {
   for (let n = 0; n <= nMax; n++) {
     const a = core.j[n];
     const b = core.h2[n];
-    if (x >= 0 && !(y > 0)) {
+    if (x > 0 && y === 0) {
+      j.push(a);
+      yy.push([-b[1], 0, b[2]]); // Y = −Im H2 exactly on the real axis
+      h2.push(b);
+    } else if (x >= 0 && !(y > 0)) {
       j.push(a);
       yy.push(timesJ(combine(b, 1, a, -1)));
       h2.push(b);
@@ -378,10 +397,16 @@ function fourthQuadrant(nMax: number, u: Complex): { j: Scaled[]; h2: Scaled[] }
     h1 = [jj[1][0] + y1[1], jj[1][1] - y1[0], 0];
   } else {
     const scale = -u[1]; // |Im u|
-    j = besselJScaledMiller(top, u).map((v) => [v[0], v[1], scale]);
+    const anchor = size >= LARGE_ARGUMENT ? besselJ01LargeScaled(u) : undefined;
+    j = besselJScaledMiller(top, u, anchor).map((v) => [v[0], v[1], scale]);
     const [a, b] = hankel2StartScaled(u);
     h0 = [a[0], a[1], u[1]];
     h1 = [b[0], b[1], u[1]];
+  }
+  if (u[1] === 0) {
+    // real axis: J and Y are real, so J has no imaginary part and Re H2 is J itself, not the
+    // upward recurrence's copy of it, which carries an error of about 1e-16·|Y| (all of J when n > x)
+    j = j.map((v) => [v[0], 0, v[2]]);
   }
   const h2: Scaled[] = [h0, h1];
   const m2 = u[0] * u[0] + u[1] * u[1];
@@ -406,5 +431,7 @@ function fourthQuadrant(nMax: number, u: Complex): { j: Scaled[]; h2: Scaled[] }
     }
     h2.push([cr, ci, log]);
   }
-  return { j: j.slice(0, nMax + 1), h2: h2.slice(0, nMax + 1) };
+  const hh = h2.slice(0, nMax + 1);
+  if (u[1] === 0) for (const [n, v] of hh.entries()) v[0] = j[n][0] * Math.exp(j[n][2] - v[2]);
+  return { j: j.slice(0, nMax + 1), h2: hh };
 }
