@@ -362,7 +362,7 @@ function evaluate(p: CylinderProblem, o: Polar, tableFor: (orders: number) => Mo
     absSum += size;
     last = size;
     if (n >= n0) {
-      const rate = Math.max(q, size / previous);
+      const rate = Math.max(q, previous > 0 ? size / previous : 0);
       small = rate < 1 && size / (1 - rate) <= TAIL_TOLERANCE * absSum ? small + 1 : 0;
       if (small >= 3) {
         converged = true;
