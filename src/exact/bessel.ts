@@ -3,30 +3,29 @@
  * integer order n and complex argument z, on the principal branch (−π < ph z ≤ π, cut along
  * the negative real axis). With the e^{+jωt} convention H_n^(2)(kρ) is the outgoing wave, and
  * a lossy or lossless-negative medium has Im k ≤ 0, so the lower half-plane is the home
- * ground here.
+ * ground here. The methods are described in bessel-scaled.ts (and the files it draws on);
+ * this file holds the public functions: single orders, all orders 0..nMax at once, the
+ * scaled variants and the ratio forms for products over hundreds of orders.
  *
- * How the values are made, all in the closed fourth quadrant u (Re u ≥ 0, Im u ≤ 0):
- *  - J_n(u): the ascending series for |u| ≤ 2 (bessel-series.ts), Miller's backward
- *    recurrence with the Jacobi–Anger normalisation above (bessel-miller.ts).
- *  - H_n^(2)(u): H0 and H1 from the series (|u| ≤ 2), an integral or Hankel's expansion
- *    (bessel-hankel-start.ts), then the upward recurrence DLMF 10.6.1, which is stable for
- *    H^(2) in the lower half-plane (it is the dominant solution there for growing n).
- *  - Y_n(u) = j·(H_n^(2) − J_n). Never J − jY for H^(2): in the lower half-plane H^(2) is
- *    smaller than J and Y by e^{2|Im u|}, and the subtraction would lose that many digits.
- * The rest of the plane follows by J_n(z̄) = conj J_n(z) with H^(2)(z̄) = conj H^(1)(z)
- * (DLMF 10.11.9) and by the continuation formulas across the cut, DLMF 10.11.1–10.11.2 at
- * m = ±1: J_n(ze^{±πj}) = (−1)^n J_n(z), Y_n(ze^{±πj}) = (−1)^n (Y_n(z) ± 2j J_n(z)).
  * On the negative real axis Im z = +0 is read as ph z = +π (the principal value) and
- * Im z = −0 as ph z = −π, the limit from below.
+ * Im z = −0 as ph z = −π, the limit from below. Unscaled results overflow to ±Infinity, or
+ * underflow to 0, only where the true value is beyond the double range (J and Y for
+ * |Im z| ≳ 710, H^(2) for Im z ≲ −745 or n far above |z|); the scaled variants J·e^{−|Im z|}
+ * and H^(2)·e^{−Im z} do not overflow for any finite z.
  *
- * Internally every value carries a natural-log scale (J grows like e^{|Im z|}, H^(2) like
- * (n−1)!(2/z)^n), so the unscaled results overflow to ±Infinity, or underflow to 0, only
- * where the true value is beyond the double range; the scaled variants never do.
+ * Accuracy (test/reference/bessel.test.ts against mpmath at 40+ digits, 302 cases, 0 ≤ n ≤ 200,
+ * 1e-3 ≤ |z| ≤ 1e3, |Im z| ≤ 710, the whole lower half-plane, both sides of the cut, the real
+ * and negative imaginary axes): error ≤ 4.4e-14 of the local size |f_n| + min(|f_{n−1}|, |f_{n+1}|),
+ * which is the relative error except right beside a zero of f_n (zeros of neighbouring orders
+ * interlace, so the size never vanishes). The error grows like (n + |z|)·1e-16, the number of
+ * recurrence steps; H^(2) in the lower half-plane has no zeros and is relatively accurate
+ * everywhere. Cost O(max(n, |z|)) per call; the sequence functions give all orders for the
+ * same price.
  */
 import type { Complex } from './complex.ts';
-import { LARGE_ARGUMENT, SMALL_ARGUMENT, besselJ01LargeScaled, hankel2StartScaled } from './bessel-hankel-start.ts';
-import { besselJRatioChain, besselJScaledMiller } from './bessel-miller.ts';
-import { besselJSeriesSequence, besselY01Series } from './bessel-series.ts';
+import { LARGE_ARGUMENT, besselJ01LargeScaled } from './bessel-hankel-start.ts';
+import { besselJRatioChain } from './bessel-miller.ts';
+import { hankelStartLower, scaledSequences, unscale } from './bessel-scaled.ts';
 
 /** All three families at one argument, orders 0..nMax. */
 export interface BesselSequences {
@@ -45,13 +44,6 @@ export interface RatioSequence {
   /** ratios[n] = f_n/f_{n−1} for n ≥ 1; ratios[0] is NaN. */
   ratios: Complex[];
 }
-
-/** A value m·e^{log}: [re(m), im(m), log]. */
-type Scaled = [number, number, number];
-
-/** Above this size a recurrence's values are scaled down and the scale carried in the log. */
-const BIG = 2 ** 600;
-const LOG_BIG = 600 * Math.LN2;
 
 /**
  * J_n(z), Bessel function of the first kind (DLMF 10.2.2), integer order, complex argument.
@@ -221,7 +213,7 @@ export function hankel2RatioSequence(nMax: number, z: Complex): RatioSequence {
   checkOrder(nMax, 'nMax');
   checkNonZeroFinite(z);
   if (z[1] > 0) throw new RangeError(`hankel2RatioSequence: needs Im z ≤ 0 (upward recurrence is unstable above), got ${z[1]}`);
-  const start = scaledSequences(1, z).h2;
+  const start = hankelStartLower(z) ?? scaledSequences(1, z).h2;
   const h0 = start[0];
   const ratios: Complex[] = [[Number.NaN, Number.NaN]];
   if (nMax >= 1) {
@@ -273,165 +265,15 @@ function largeAnchor(z: Complex): [Complex, Complex] | undefined {
 type Family = 'j' | 'y' | 'h2';
 
 function single(n: number, z: Complex, family: Family): Complex {
-  if (!Number.isInteger(n)) throw new RangeError(`bessel: order must be an integer, got ${n}`);
-  const m = Math.abs(n);
-  const value = unscale(scaledSequences(m, z)[family][m]);
-  return n < 0 && m % 2 === 1 ? [-value[0], -value[1]] : value;
+  return rescaled(n, z, family, 0);
 }
 
+/** One value times e^{log}; H0^(2) and H1^(2) in the lower half-plane skip J (the incident wave's case). */
 function rescaled(n: number, z: Complex, family: Family, log: number): Complex {
   if (!Number.isInteger(n)) throw new RangeError(`bessel: order must be an integer, got ${n}`);
   const m = Math.abs(n);
-  const v = scaledSequences(m, z)[family][m];
+  const v = (family === 'h2' && m <= 1 ? hankelStartLower(z)?.[m] : undefined) ?? scaledSequences(m, z)[family][m];
   const value = unscale([v[0], v[1], v[2] + log]);
   return n < 0 && m % 2 === 1 ? [-value[0], -value[1]] : value;
 }
 
-/** m·e^{log} as a plain complex number, multiplying in steps so that nothing over- or underflows early. */
-function unscale(s: Scaled): Complex {
-  let [re, im, log] = s;
-  const step = log > 0 ? 600 : -600;
-  const factor = Math.exp(step);
-  for (let i = 0; i < 8 && Math.abs(log) > 600; i++) {
-    re *= factor;
-    im *= factor;
-    log -= step;
-  }
-  const e = Math.exp(log);
-  return [re === 0 ? 0 : re * e, im === 0 ? 0 : im * e];
-}
-
-/** a·x + b·y for scaled a, b and real weights x, y, rescaled to the larger log. */
-function combine(a: Scaled, x: number, b: Scaled, y: number): Scaled {
-  const log = Math.max(aLog(a), aLog(b));
-  const ea = Math.exp(a[2] - log) * x;
-  const eb = Math.exp(b[2] - log) * y;
-  return [a[0] * ea + b[0] * eb, a[1] * ea + b[1] * eb, log];
-}
-
-/** The log of a scaled value, −Infinity for a zero mantissa (so the other one sets the scale). */
-function aLog(a: Scaled): number {
-  return a[0] === 0 && a[1] === 0 ? Number.NEGATIVE_INFINITY : a[2];
-}
-
-const timesJ = (a: Scaled): Scaled => [-a[1], a[0], a[2]];
-const conj = (a: Scaled): Scaled => [a[0], -a[1], a[2]];
-const times = (a: Scaled, s: number): Scaled => [a[0] * s, a[1] * s, a[2]];
-
-interface ScaledSequences { j: Scaled[]; y: Scaled[]; h2: Scaled[] }
-
-function constant(nMax: number, value: (n: number) => Complex): Scaled[] {
-  return Array.from({ length: nMax + 1 }, (_, n) => [...value(n), 0] as Scaled);
-}
-
-/** The three families anywhere in the plane, from the fourth-quadrant core (module comment). */
-function scaledSequences(nMax: number, z: Complex): ScaledSequences {
-  const [x, y] = z;
-  if (Number.isNaN(x) || Number.isNaN(y) || !Number.isFinite(y) || x === Number.NEGATIVE_INFINITY) {
-    const nan = constant(nMax, () => [Number.NaN, Number.NaN]);
-    return { j: nan, y: nan, h2: nan };
-  }
-  if (x === Number.POSITIVE_INFINITY) {
-    const zero = constant(nMax, () => [0, 0]);
-    return { j: zero, y: zero, h2: zero };
-  }
-  if (x === 0 && y === 0) {
-    return {
-      j: constant(nMax, (n) => [n === 0 ? 1 : 0, 0]),
-      y: constant(nMax, () => [Number.NEGATIVE_INFINITY, 0]),
-      h2: constant(nMax, (n) => [n === 0 ? 1 : 0, Number.POSITIVE_INFINITY]),
-    };
-  }
-  const upperSide = y > 0 || Object.is(y, 0);
-  let u: Complex;
-  if (x >= 0) u = y > 0 ? [x, -y] : [x, y];
-  else u = upperSide ? [-x, -y] : [-x, y];
-  const core = fourthQuadrant(nMax, u);
-  const j: Scaled[] = [];
-  const yy: Scaled[] = [];
-  const h2: Scaled[] = [];
-  for (let n = 0; n <= nMax; n++) {
-    const a = core.j[n];
-    const b = core.h2[n];
-    if (x > 0 && y === 0) {
-      j.push(a);
-      yy.push([-b[1], 0, b[2]]); // Y = −Im H2 exactly on the real axis
-      h2.push(b);
-    } else if (x >= 0 && !(y > 0)) {
-      j.push(a);
-      yy.push(timesJ(combine(b, 1, a, -1)));
-      h2.push(b);
-    } else if (x >= 0) {
-      j.push(conj(a));
-      yy.push(conj(timesJ(combine(b, 1, a, -1))));
-      h2.push(conj(combine(a, 2, b, -1)));
-    } else {
-      const s = n % 2 === 0 ? 1 : -1;
-      const ya = timesJ(combine(b, s, a, s)); // (−1)^n·j(H2 + J)
-      if (upperSide) {
-        j.push(times(a, s));
-        yy.push(ya);
-        h2.push(combine(b, s, a, 2 * s));
-      } else {
-        j.push(conj(times(a, s)));
-        yy.push(conj(ya));
-        h2.push(conj(times(b, -s)));
-      }
-    }
-  }
-  return { j, y: yy, h2 };
-}
-
-/** J_n(u) and H_n^(2)(u), n = 0..nMax, for Re u ≥ 0, Im u ≤ 0, u ≠ 0. */
-function fourthQuadrant(nMax: number, u: Complex): { j: Scaled[]; h2: Scaled[] } {
-  const size = Math.hypot(u[0], u[1]);
-  const top = Math.max(nMax, 1);
-  let j: Scaled[];
-  let h0: Scaled;
-  let h1: Scaled;
-  if (size <= SMALL_ARGUMENT) {
-    const jj = besselJSeriesSequence(top, u);
-    const [y0, y1] = besselY01Series(u, jj[0], jj[1]);
-    j = jj.map((v) => [v[0], v[1], 0]);
-    h0 = [jj[0][0] + y0[1], jj[0][1] - y0[0], 0]; // J − jY
-    h1 = [jj[1][0] + y1[1], jj[1][1] - y1[0], 0];
-  } else {
-    const scale = -u[1]; // |Im u|
-    const anchor = size >= LARGE_ARGUMENT ? besselJ01LargeScaled(u) : undefined;
-    j = besselJScaledMiller(top, u, anchor).map((v) => [v[0], v[1], scale]);
-    const [a, b] = hankel2StartScaled(u);
-    h0 = [a[0], a[1], u[1]];
-    h1 = [b[0], b[1], u[1]];
-  }
-  if (u[1] === 0) {
-    // real axis: J and Y are real, so J has no imaginary part and Re H2 is J itself, not the
-    // upward recurrence's copy of it, which carries an error of about 1e-16·|Y| (all of J when n > x)
-    j = j.map((v) => [v[0], 0, v[2]]);
-  }
-  const h2: Scaled[] = [h0, h1];
-  const m2 = u[0] * u[0] + u[1] * u[1];
-  const invR = u[0] / m2;
-  const invI = -u[1] / m2;
-  let [pr, pi] = [h0[0], h0[1]];
-  let [cr, ci] = [h1[0], h1[1]];
-  let log = h1[2];
-  if (h0[2] !== log) [pr, pi] = [pr * Math.exp(h0[2] - log), pi * Math.exp(h0[2] - log)];
-  for (let n = 1; n < nMax; n++) {
-    const fr = 2 * n * invR;
-    const fi = 2 * n * invI;
-    const nr = fr * cr - fi * ci - pr;
-    const ni = fr * ci + fi * cr - pi;
-    pr = cr;
-    pi = ci;
-    cr = nr;
-    ci = ni;
-    if (Math.abs(cr) + Math.abs(ci) > BIG) {
-      cr /= BIG; ci /= BIG; pr /= BIG; pi /= BIG;
-      log += LOG_BIG;
-    }
-    h2.push([cr, ci, log]);
-  }
-  const hh = h2.slice(0, nMax + 1);
-  if (u[1] === 0) for (const [n, v] of hh.entries()) v[0] = j[n][0] * Math.exp(j[n][2] - v[2]);
-  return { j: j.slice(0, nMax + 1), h2: hh };
-}

@@ -201,6 +201,9 @@ interface ModeTable {
   cRe: Float64Array; cIm: Float64Array;
   /** g_n: the transmitted mode's factor on J_n(k2ρ)/J_{n−1}(k2a) (n ≥ 1), on J_0(k2ρ)/J_0(k2a) (n = 0). */
   gRe: Float64Array; gIm: Float64Array;
+  /** 1/h_n with h_n = H_n^(2)(k1a)/H_{n−1}^(2)(k1a), and 1/r_n with r_n = J_n(k2a)/J_{n−1}(k2a) (zero for PEC). */
+  invHaRe: Float64Array; invHaIm: Float64Array;
+  invR2Re: Float64Array; invR2Im: Float64Array;
   hA: RatioSequence; // H_n^(2)(k1a)
   jA2: RatioSequence | null; // J_n(k2a)
 }
@@ -227,7 +230,13 @@ function buildTable(p: CylinderProblem, orders: number): ModeTable {
     bRe: new Float64Array(orders), bIm: new Float64Array(orders),
     cRe: new Float64Array(orders), cIm: new Float64Array(orders),
     gRe: new Float64Array(orders), gIm: new Float64Array(orders),
+    invHaRe: new Float64Array(orders), invHaIm: new Float64Array(orders),
+    invR2Re: new Float64Array(orders), invR2Im: new Float64Array(orders),
   };
+  for (let n = 1; n < orders; n++) {
+    [t.invHaRe[n], t.invHaIm[n]] = div([1, 0], hA.ratios[n]);
+    if (jA2) [t.invR2Re[n], t.invR2Im[n]] = div([1, 0], jA2.ratios[n]);
+  }
   const tm = p.polarization === 'TMz';
   // running values: T_n = H_n(k1ρs)/H_n(k1a), J_n(k1a), P_n = H_n(k1ρs)·J_n(k1a)
   let T = firstRatio(hS, hA);
@@ -316,29 +325,31 @@ function evaluate(p: CylinderProblem, o: Polar, tableFor: (orders: number) => Mo
   const table = tableFor(wanted);
   const n0 = Math.ceil(turning + 2 * Math.cbrt(turning)) + 2;
 
-  // per-observer ratio factor and its first value
-  let factor: Complex; // E_0 outside, V_0 inside
-  let ratioAt: (n: number) => Complex; // per-order update of the factor
-  let termOf: (n: number, f: Complex) => { term: Complex; next: Complex };
+  // Per observer: f runs through E_n = E_{n−1}·h_n(k1ρ)/h_n(k1a) outside (term b_n·E_n), and inside
+  // through U_n = V_{n−1}·J_n(k2ρ)/J_{n−1}(k2ρ) (term g_n·U_n), then V_n = U_n/r_n(k2a).
+  let first: Complex; // E_0 or V_0
+  let ratios: Complex[] | null; // the observer's own ratios (null at the centre: J_n(0) = 0 for n ≥ 1)
+  let coefRe: Float64Array;
+  let coefIm: Float64Array;
+  let invRe: Float64Array; // 1/h_n(k1a) outside, 1/r_n(k2a) inside
+  let invIm: Float64Array;
   if (outside) {
     const hO = hankel2RatioSequence(wanted, scale(p.k1, o.rho));
-    factor = firstRatio(hO, table.hA);
-    ratioAt = (n) => div(hO.ratios[n], table.hA.ratios[n]);
-    termOf = (n, f) => ({ term: mul([table.bRe[n], table.bIm[n]], f), next: f });
+    first = firstRatio(hO, table.hA);
+    ratios = hO.ratios;
+    [coefRe, coefIm, invRe, invIm] = [table.bRe, table.bIm, table.invHaRe, table.invHaIm];
   } else {
     const jA2 = table.jA2 as RatioSequence;
-    const z2 = p.inside === 'pec' ? [0, 0] : p.inside.k2;
+    const k2: Complex = p.inside === 'pec' ? [0, 0] : p.inside.k2;
     if (o.rho === 0) {
-      factor = div([1, 0], scale(jA2.first, Math.exp(jA2.logScale)));
-      ratioAt = () => [0, 0];
+      first = div([1, 0], scale(jA2.first, Math.exp(jA2.logScale)));
+      ratios = null;
     } else {
-      const jO = besselJRatioSequence(wanted, scale(z2 as Complex, o.rho));
-      factor = firstRatio(jO, jA2);
-      ratioAt = (n) => jO.ratios[n];
+      const jO = besselJRatioSequence(wanted, scale(k2, o.rho));
+      first = firstRatio(jO, jA2);
+      ratios = jO.ratios;
     }
-    // V_n = J_n(k2ρ)/J_n(k2a): term_n = g_n·U_n with U_n = V_{n−1}·J_n(k2ρ)/J_{n−1}(k2ρ), V_n = U_n/r_n(k2a)
-    termOf = (n, f) => (n === 0 ? { term: mul([table.gRe[0], table.gIm[0]], f), next: f }
-      : { term: mul([table.gRe[n], table.gIm[n]], f), next: div(f, jA2.ratios[n]) });
+    [coefRe, coefIm, invRe, invIm] = [table.gRe, table.gIm, table.invR2Re, table.invR2Im];
   }
 
   let sumR = 0;
@@ -350,15 +361,20 @@ function evaluate(p: CylinderProblem, o: Polar, tableFor: (orders: number) => Mo
   let previous = Number.POSITIVE_INFINITY;
   let n = 0;
   let converged = false;
-  let f = factor;
-  for (; n < Math.min(wanted, table.orders); n++) {
-    if (n > 0) f = mul(f, ratioAt(n)); // E_n outside, U_n inside
-    const { term, next } = termOf(n, f);
-    f = next;
+  let [fr, fi] = first;
+  for (; n < wanted; n++) {
+    if (n > 0) {
+      const [rr, ri] = ratios ? ratios[n] : [0, 0];
+      [fr, fi] = [fr * rr - fi * ri, fr * ri + fi * rr];
+      if (outside) [fr, fi] = [fr * invRe[n] - fi * invIm[n], fr * invIm[n] + fi * invRe[n]];
+    }
+    const tr = coefRe[n] * fr - coefIm[n] * fi;
+    const ti = coefRe[n] * fi + coefIm[n] * fr;
+    if (!outside && n > 0) [fr, fi] = [fr * invRe[n] - fi * invIm[n], fr * invIm[n] + fi * invRe[n]];
     const weight = n === 0 ? 1 : 2 * Math.cos(n * dphi);
-    sumR += weight * term[0];
-    sumI += weight * term[1];
-    const size = (n === 0 ? 1 : 2) * mag(term);
+    sumR += weight * tr;
+    sumI += weight * ti;
+    const size = (n === 0 ? 1 : 2) * Math.sqrt(tr * tr + ti * ti);
     absSum += size;
     last = size;
     if (n >= n0) {
