@@ -30,6 +30,11 @@
  *
  * Normalisation: F = Ez/(−ωμ0 I/4) for TMz and F = Hz/(−ωε0ε1 M/4) for TEz, so that the incident
  * part is H0^(2)(k1|r − rs|); inside the cylinder F keeps the outside factor.
+ *
+ * Accuracy (test/reference/cylinder-series.test.ts): within 1.4e-14 of |F| + |incident| of an
+ * independent mpmath series over 84 cases (both polarizations; PEC, lossless, lossy and
+ * negative-ε cylinders; lossy outside medium; observers inside, outside and on the surface;
+ * sources within 0.025a of the surface; ka up to 20), and power balance to 1e-15.
  */
 import type { Complex } from './complex.ts';
 import { besselJRatioSequence, hankel2, hankel2RatioSequence, type RatioSequence } from './bessel.ts';
@@ -70,7 +75,7 @@ export interface CylinderSeriesResult {
   converged: boolean;
 }
 
-/** Hard cap on the number of orders (a source within about 1e-4·a of the surface reaches it). */
+/** Hard cap on the number of orders (a source closer than about 2e-4·a to the surface reaches it). */
 export const MAX_ORDERS = 200_000;
 
 /** The tail must be below this fraction of Σ|terms| + |incident|. */
@@ -79,8 +84,9 @@ const TAIL_TOLERANCE = 1e-16;
 /**
  * The normalised total field of a line source beside a circular cylinder at one observer
  * (module comment for the method). Term-count rule: orders are summed at least up to
- * n0 = X + 2·X^{1/3} + 2, X = the largest of |k1|ρs, |k1|ρ, |k1|a, |k2|a, |k2|ρ (the last
- * turning point of the Bessel functions involved, plus the width of the Airy transition),
+ * n0 = X + 2·X^{1/3} + 2, X = the largest of |k1|ρs, |k1|a, |k2|a (the last turning point of
+ * the Bessel functions whose ratios set the size of the terms, plus the width of the Airy
+ * transition; a dielectric's whispering-gallery resonances lie below |k2|a),
  * and then until three successive orders n have |term_n|/(1 − q) ≤ 1e-16·(|incident| +
  * Σ|terms|), where q is the larger of the geometric rate of the series (a²/(ρρs) outside,
  * ρ/ρs inside) and the observed ratio of the last two terms: a bound on the geometric tail.
@@ -105,7 +111,9 @@ export function cylinderSeries(p: CylinderProblem & { observer: Polar }): Cylind
 /**
  * The same for many observers at one frequency, sharing the per-order coefficients (built
  * once, O(N + |k|a) for N orders) so that each observer costs one run of its own ratio
- * recurrence and one sum, O(N + |k1|ρ) operations, plus one H0^(2) for the incident wave.
+ * recurrence and one sum, O(N) operations (O(N + |k2|ρ) inside), plus one H0^(2) for the
+ * incident wave: a few tens of microseconds for N of a hundred or two, against a full table
+ * rebuild per point for repeated {@link cylinderSeries} calls.
  *
  * @param p - the problem
  * @param observers - observer positions
@@ -319,7 +327,9 @@ function evaluate(p: CylinderProblem, o: Polar, tableFor: (orders: number) => Mo
   }
   const k1 = mag(p.k1);
   const k2 = p.inside === 'pec' ? 0 : mag(p.inside.k2);
-  const turning = Math.max(k1 * rs, k1 * a, k2 * a, outside ? k1 * o.rho : k2 * o.rho);
+  // an outside observer's own k1ρ is left out: |H_n(k1ρ)/H_n(k1a)| ≤ 1 for ρ ≥ a (|H_n^(2)| falls
+  // with the distance, DLMF 10.9.30 for real k), so its terms are bounded by the surface values b_n
+  const turning = Math.max(k1 * rs, k1 * a, k2 * a, outside ? 0 : k2 * o.rho);
   const q = outside ? (a * a) / (o.rho * rs) : o.rho / rs;
   const wanted = ordersWanted(turning, q);
   const table = tableFor(wanted);

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { besselJ, besselJSequence, hankel2 } from '../../src/exact/bessel.ts';
+import { besselJ, besselJSequence, hankel2, hankel2Sequence } from '../../src/exact/bessel.ts';
 import { cDiv as div, cMul as mul } from '../../src/exact/complex.ts';
 import type { Complex } from '../../src/exact/complex.ts';
 import {
@@ -249,6 +249,26 @@ describe('term count and edge cases', () => {
     expect(() => cylinderSeries({ ...problem('TMz', 'pec'), observer: { rho: Number.NaN, phi: 0 } })).toThrow(RangeError); // documented
     expect(() => cylinderSeries({ ...problem('TMz', 'pec'), observer: { rho: -1, phi: 0 } })).toThrow(RangeError); // documented
     expect(() => cylinderSeries({ ...problem('TMz', 'pec'), radius: Number.POSITIVE_INFINITY, observer: { rho: 3, phi: 0 } })).toThrow(RangeError); // documented
+  });
+
+  it('reaches far observers with the orders the cylinder needs, not the distance', () => {
+    // at k1ρ = 2000 the scattered wave is Σ ε_n c_n H_n^(2)(k1ρ) cos nΔφ (the module's expansion),
+    // summed here with H_n from hankel2Sequence directly, which is safe below n = k1ρ
+    for (const inside of ['pec', medium([4, -0.5])] as CylinderProblem['inside'][]) {
+      const p = problem('TEz', inside);
+      const observer: Polar = { rho: 2000, phi: 2.5 };
+      const r = cylinderSeries({ ...p, observer });
+      const c = cylinderSeriesSolver(p).outgoingAmplitudes(80);
+      const h = hankel2Sequence(80, [2000, 0]);
+      let direct: Complex = [0, 0];
+      for (let n = 0; n <= 80; n++) {
+        const w = (n === 0 ? 1 : 2) * Math.cos(n * (observer.phi - p.source.phi));
+        const t = mul(c[n], h[n]);
+        direct = [direct[0] + w * t[0], direct[1] + w * t[1]];
+      }
+      expect(rel(r.scattered, direct)).toBeLessThan(1e-12); // DLMF 10.23.7 (the series form), summed independently
+      expect(r.terms).toBeLessThan(40); // documented term-count rule: set by ka = 2 and kρs = 4, not by kρ = 2000
+    }
   });
 
   it('gives the same values for many observers as one at a time', () => {
