@@ -5,6 +5,8 @@
  * e^{jz} = J0 + 2 Σ_{k≥1} j^k J_k (Jacobi–Anger, DLMF 10.12.1 at t = j; e^{−jz} with (−j)^k
  * when Im z > 0) fixes the scale. The sum's terms have no worse cancellation than about
  * √|z| in the lower half-plane (on the negative imaginary axis they are the positive I_k).
+ * At large |z| the caller may instead anchor the scale on J0 and J1 known from elsewhere:
+ * the sum then gathers more rounding (about |z| terms) than two accurate values carry.
  */
 import type { Complex } from './complex.ts';
 
@@ -24,7 +26,7 @@ import type { Complex } from './complex.ts';
  * @param z - argument, dimensionless, z ≠ 0
  * @returns the starting order N > nMax
  * @example
- * millerStartOrder(0, [1, 0]); // 14
+ * millerStartOrder(0, [1, 0]); // 18
  */
 export function millerStartOrder(nMax: number, z: Complex): number {
   const size = Math.hypot(z[0], z[1]);
@@ -71,7 +73,7 @@ export function millerStartOrder(nMax: number, z: Complex): number {
  * @param anchor - optional [J0, J1]·e^{−|Im z|}
  * @returns ratios (length nMax + 1, entry n = J_n/J_{n−1}, entry 0 NaN) and j0Scaled
  * @example
- * besselJRatioChain(1, [1, 0]).ratios[1]; // ≈ [0.5750803, 0]  (J1(1)/J0(1))
+ * besselJRatioChain(1, [1, 0]).ratios[1]; // ≈ [0.5750809, 0]  (J1(1)/J0(1))
  */
 export function besselJRatioChain(nMax: number, z: Complex, anchor?: [Complex, Complex]): { ratios: Complex[]; j0Scaled: Complex } {
   const start = millerStartOrder(Math.max(nMax, 1), z);
