@@ -138,7 +138,7 @@ describe('physics checks', () => {
         expect(errors[i - 1] / errors[i]).toBeGreaterThan(7); // surface impedance Z = η/√ε2 (Leontovich condition, from memory)
         expect(errors[i - 1] / errors[i]).toBeLessThan(14); // surface impedance Z = η/√ε2 (Leontovich condition, from memory)
       }
-      expect(errors[3]).toBeLessThan(1e-3); // same
+      expect(errors[3]).toBeLessThan(3e-4); // surface impedance Z = η/√ε2 (Leontovich condition, from memory): error about 1.8/√1e8 measured
     }
   });
 
@@ -203,7 +203,7 @@ describe('physics checks', () => {
       expect(none.scattered).toEqual([0, 0]); // documented
       const small = [1e-2, 1e-3].map((a) => mag(cylinderSeries({ ...problem(pol, medium([4, 0])), radius: a, observer }).scattered));
       expect(small[0] / small[1]).toBeGreaterThan(90); // Rayleigh scattering ∝ (ka)² in 2D (from memory)
-      expect(small[0] / small[1]).toBeLessThan(110); // same
+      expect(small[0] / small[1]).toBeLessThan(110); // Rayleigh scattering ∝ (ka)² in 2D (from memory)
     }
     // a thin PEC wire (TMz) does not vanish: its n = 0 wave, −H0(kρs)·J0(ka)/H0(ka)·H0(kρ),
     // falls off only like 1/ln(ka); the other orders are O((ka)²)
