@@ -119,6 +119,7 @@ export async function studyCommand(d: AnyStudyDefinition, args: ParsedArgs): Pro
     note(message);
   }
 
+  for (const line of d.preview?.(plan) ?? []) note(line);
   const fromDir = textOption(args, 'from');
   const runner = fromDir ? folderRunner(fromDir, plannedRuns(d, plan as StudyPlan)) : createNodePool(workers);
   const planned = plan as StudyPlan;

@@ -152,6 +152,8 @@ export interface StudyDefinition<O = unknown, CP extends PlannedCandidate = Plan
   apply?(scenario: Scenario, plan: P, pick: C): Scenario;
   /** Charts of the candidates so far (the result once finished), as data for the page. */
   charts?(plan: P, rows: readonly C[], result: R | undefined): StudyChart[];
+  /** Lines to show before running: memory and time of the runs. */
+  preview?(plan: P): string[];
   /** What the shared runs are, in words, for progress ("the reference grid"). */
   sharedRuns?: string;
   /** A note under the page's form: how the study measures. */

@@ -3,12 +3,14 @@
  * their tabs. A new study is one file with its definition (definition.ts) and one line here.
  */
 import { absorberStudy } from './absorber-study.ts';
+import { convergenceStudy } from './convergence-study.ts';
 import type { AnyStudyDefinition } from './definition.ts';
 import { resolutionStudy } from './resolution-study.ts';
 
 export const STUDIES: readonly AnyStudyDefinition[] = [
   absorberStudy,
   resolutionStudy,
+  convergenceStudy,
 ];
 
 /** The study with this id or command-line verb. */
