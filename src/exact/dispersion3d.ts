@@ -176,6 +176,8 @@ export interface Projection3dInput {
   simulatedTime: number;
   /** Speed of the 3D engine, millions of Yee cells (all six field components) updated per second. */
   mcellsPerSecond: number;
+  /** A floor on the resolution from geometry (the thinnest feature), cells per wavelength; default none. */
+  minCellsPerWavelength?: number;
 }
 
 /** What {@link project3d} returns. */
@@ -204,6 +206,8 @@ export interface Projection3d {
   seconds: number;
   /** The speed the run time assumes, Mcells/s (as given). */
   mcells_per_second: number;
+  /** Which requirement set the resolution: the phase budget, or the geometry floor. */
+  governedBy: 'dispersion' | 'feature';
 }
 
 function checkInput(input: Projection3dInput): void {
@@ -285,7 +289,8 @@ export function project3d(input: Projection3dInput): Projection3d {
     else lo = mid;
   }
   const cellsPerWavelengthMin = hi;
-  const cellsPerWavelength = Math.ceil(cellsPerWavelengthMin * (1 - 1e-12));
+  const byFeature = (input.minCellsPerWavelength ?? 0) > cellsPerWavelengthMin;
+  const cellsPerWavelength = Math.ceil((byFeature ? input.minCellsPerWavelength as number : cellsPerWavelengthMin) * (1 - 1e-12));
   const wavelength = input.waveSpeed / input.frequency;
   const dx = wavelength / cellsPerWavelength;
   const dt = (courant * dx) / input.waveSpeed;
@@ -308,5 +313,6 @@ export function project3d(input: Projection3dInput): Projection3d {
     steps,
     seconds: (cells * steps) / (input.mcellsPerSecond * 1e6),
     mcells_per_second: input.mcellsPerSecond,
+    governedBy: byFeature ? 'feature' : 'dispersion',
   };
 }

@@ -15,6 +15,7 @@ import { phaseErrorPerWavelengthDeg } from '../exact/dispersion.ts';
 import { timeStep, waveSpeed } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import type { SpectraJob } from './jobs.ts';
+import type { ProjectionOptions } from './projection.ts';
 
 export const DEFAULT_CELLS_PER_WAVELENGTH = [8, 10, 12, 14, 16, 18, 20, 24, 28, 32, 36, 40, 44, 48, 54, 60] as const;
 
@@ -47,6 +48,8 @@ export interface ResolutionStudyOptions {
   minCells?: number;
   /** Finest resolution measured (default 60); added to the list if absent. */
   maxCells?: number;
+  /** The 3D projection and the geometry floor (projection.ts). */
+  projection?: ProjectionOptions;
 }
 
 /** Problems with study options, as messages naming the option; empty when all is well. */
@@ -62,6 +65,12 @@ export function resolutionOptionProblems(o: ResolutionStudyOptions): string[] {
   for (const v of o.cellsPerWavelength ?? []) cpw('cellsPerWavelength', v);
   if (o.cellsPerWavelength && o.cellsPerWavelength.length === 0) problems.push('cellsPerWavelength: give at least one value');
   if (o.minCells !== undefined && o.maxCells !== undefined && o.minCells > o.maxCells) problems.push(`min-cells ${o.minCells} is above max-cells ${o.maxCells}`);
+  const p = o.projection ?? {};
+  if (p.dims === 3 && !p.volume) problems.push('volume: the 3D projection needs the project\'s region as X,Y,Z in metres, e.g. --volume 0.2,0.1,0.05');
+  if (p.volume && !(p.volume.length === 3 && p.volume.every((v) => Number.isFinite(v) && v > 0))) problems.push(`volume: ${p.volume.join(',')} is not three positive lengths in metres; write e.g. 0.2,0.1,0.05`);
+  if (p.feature_m !== undefined && !(p.feature_m > 0)) problems.push(`feature: ${p.feature_m} is not a positive length in metres; write e.g. 0.0016`);
+  if (p.cellsPerFeature !== undefined && !(Number.isInteger(p.cellsPerFeature) && p.cellsPerFeature >= 1 && p.cellsPerFeature <= 100)) problems.push(`cells-per-feature: ${p.cellsPerFeature} is not a whole number of cells from 1 to 100; write e.g. 4`);
+  if (p.mcells3d !== undefined && !(p.mcells3d > 0)) problems.push(`speed: ${p.mcells3d} is not a positive number of million cells per second; write e.g. 300`);
   return problems;
 }
 
@@ -203,6 +212,7 @@ export interface ResolutionStudyPlan {
   aspect: number;
   /** Absorber cells assumed for the project grid. */
   absorberCells: number;
+  projection: ProjectionOptions;
   candidates: ResolutionCandidatePlan[];
 }
 
@@ -232,6 +242,7 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
     epsR: s.medium.epsR,
     aspect,
     absorberCells: s.absorber.cells,
+    projection: options.projection ?? {},
     candidates,
   };
 }

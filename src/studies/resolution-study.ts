@@ -9,7 +9,7 @@ import { lineCurrentTransfer } from '../exact/transfer.ts';
 import { layoutOf, nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
-import { readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { readListOption, readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
 import { transferAt, type SpectraResult } from './jobs.ts';
 import { fitLine, unwrapDegrees } from './phase-fit.ts';
 import type { StudyPool } from './pool.ts';
@@ -17,6 +17,7 @@ import {
   applyResolution, LINE_NAMES, planResolutionStudy, predictedLags, projectEstimate, resolutionOptionProblems,
   type ProjectEstimate, type ResolutionCandidatePlan, type ResolutionStudyOptions, type ResolutionStudyPlan,
 } from './resolution-plan.ts';
+import { featureCellsPerWavelength, projectTo3d, type Projection3dResult, type ProjectionOptions } from './projection.ts';
 import { runStudy, type StudyCallbacks } from './run-study.ts';
 
 export * from './resolution-plan.ts';
@@ -66,8 +67,12 @@ export interface ResolutionStudyResult {
   /** Engine speed over all measurement runs, million node updates per second per worker. */
   mcells_per_second: number;
   candidates: ResolutionCandidateResult[];
-  /** Coarsest resolution whose projected error meets the budget; null if none. */
+  /** Coarsest resolution whose projected error meets the budget (made finer by a feature, if one governs); null if none. */
   recommended: ResolutionCandidateResult | null;
+  /** What set the recommendation: the phase budget, or the thinnest feature. */
+  governedBy: 'dispersion' | 'feature';
+  /** The recommendation projected onto a 3D grid (with --dims 3). */
+  projection3d: Projection3dResult | null;
   planned: number;
   complete: boolean;
   workers: number[];
@@ -155,7 +160,10 @@ export function resolutionJsonObject(r: ResolutionStudyResult) {
   return {
     budget_deg: r.budget_deg,
     size_wavelengths: r.size_wavelengths,
-    recommended: rec && { cellsPerWavelength: rec.cellsPerWavelength, dx_m: rec.dx_m, projected_error_deg: rec.projected_error_deg, dy_m: rec.dy_m, project: rec.project },
+    recommended: rec && {
+      cellsPerWavelength: rec.cellsPerWavelength, dx_m: rec.dx_m, projected_error_deg: rec.projected_error_deg, dy_m: rec.dy_m, project: rec.project,
+      ...(r.governedBy === 'feature' ? { governed_by: 'feature' } : {}),
+    },
     candidates: r.candidates.map((c) => ({
       cellsPerWavelength: c.cellsPerWavelength, dx_m: c.dx_m,
       axis_deg_per_wavelength: c.axis_deg_per_wavelength, diagonal_deg_per_wavelength: c.diagonal_deg_per_wavelength,
@@ -174,6 +182,7 @@ export function resolutionJsonObject(r: ResolutionStudyResult) {
     complete: r.complete,
     workers: r.workers.length,
     study_seconds: r.seconds,
+    ...(r.projection3d ? { projection3d: r.projection3d } : {}),
   };
 }
 
@@ -193,6 +202,18 @@ function resolutionOutputs(r: ResolutionStudyResult): StudyOutput[] {
 }
 
 const deg = (x: number) => formatSig(x, 3);
+
+/** The recommendation when the thinnest feature asks for finer cells than the phase budget: predicted figures at that resolution. */
+function featureRow(plan: ResolutionStudyPlan, base: ResolutionCandidateResult, n: number, mcells: number): ResolutionCandidateResult {
+  const p = predictedLags(plan.frequency_Hz, plan.epsR, plan.courant, plan.aspect, n);
+  const dx = plan.wavelength_m / n;
+  return {
+    ...base, cellsPerWavelength: n, dx_m: dx, dy_m: dx * plan.aspect,
+    predicted_axis_deg_per_wavelength: Math.max(p.x, p.y), predicted_diagonal_deg_per_wavelength: p.diagonal,
+    projected_error_deg: Math.max(p.x, p.y, p.diagonal) * plan.size_wavelengths,
+    project: projectOf(plan, n, mcells),
+  };
+}
 
 /** Measured lag per wavelength (points) over the dispersion relation's curves (lines), log–log, with the budget. */
 function resolutionCharts(plan: ResolutionStudyPlan, rows: readonly ResolutionCandidateResult[]): StudyChart[] {
@@ -227,6 +248,11 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
     { name: 'budget', label: 'Phase budget (degrees)', metavar: 'DEGREES', required: true, help: 'phase error allowed across that distance (required)', defaultText: '5' },
     { name: 'min-cells', label: 'Coarsest cells per wavelength', help: 'lower end of the range (default 8)', defaultText: '8' },
     { name: 'max-cells', label: 'Finest cells per wavelength', help: 'upper end of the range (default 60)', defaultText: '60' },
+    { name: 'feature', label: 'Thinnest feature (m)', help: 'the smallest size the grid must resolve (a substrate, a gap, a wire), m', metavar: 'SIZE' },
+    { name: 'cells-per-feature', label: 'Cells across it', help: 'cells across the thinnest feature (default 4)', defaultText: '4' },
+    { name: 'dims', label: 'Project dimensions', help: '3 projects the answer onto a 3D grid', defaultText: '2', choices: ['2', '3'] },
+    { name: 'volume', label: '3D region X,Y,Z (m)', help: 'the 3D project\'s region without absorber, three lengths in m', metavar: 'X,Y,Z' },
+    { name: 'speed', label: '3D speed (Mcells/s)', help: 'your 3D engine\'s speed; default: half this machine\'s 2D figure, labelled as an estimate', metavar: 'MCELLS' },
   ],
   readOptions(values) {
     const problems: string[] = [];
@@ -234,6 +260,14 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
       const r = readNumberOption(name, values[name], unit, example);
       if (r.problem) problems.push(r.problem);
       return r.value;
+    };
+    const dims = values.dims === undefined || values.dims === '' ? undefined : Number(values.dims);
+    if (dims !== undefined && dims !== 2 && dims !== 3) problems.push(`dims: "${values.dims}" is not 2 or 3; write 3 for the 3D projection`);
+    const volume = readListOption('volume', values.volume, 'metres', '0.2,0.1,0.05');
+    if (volume.problem) problems.push(volume.problem);
+    const projection: ProjectionOptions = {
+      dims: dims as 2 | 3 | undefined, volume: volume.value as [number, number, number] | undefined,
+      feature_m: num('feature', 'metres', '0.0016'), cellsPerFeature: num('cells-per-feature', 'cells', '4'), mcells3d: num('speed', 'Mcells/s', '300'),
     };
     const size = num('size', 'wavelengths', '12');
     const budget = num('budget', 'degrees', '5');
@@ -243,7 +277,7 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
     if (size === undefined) problems.push('size is required: the largest distance in the project in wavelengths at the highest frequency, e.g. 12');
     if (budget === undefined) problems.push('budget is required: the phase error allowed across that distance in degrees, e.g. 5');
     if (problems.length) return { problems };
-    const options: ResolutionStudyOptions = { size_wavelengths: size as number, budget_deg: budget as number, minCells, maxCells };
+    const options: ResolutionStudyOptions = { size_wavelengths: size as number, budget_deg: budget as number, minCells, maxCells, projection };
     problems.push(...resolutionOptionProblems(options));
     return problems.length ? { problems } : { options, problems };
   },
@@ -263,7 +297,12 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
     const ran = candidates.filter((r) => r.seconds > 0);
     const mcells = ran.reduce((a, r) => a + r.cellUpdates, 0) / ran.reduce((a, r) => a + r.seconds, 0) / 1e6;
     for (const r of candidates) r.project = projectOf(plan, r.cellsPerWavelength, mcells);
+    const byBudget = recommendResolution(candidates, plan.budget_deg);
+    const featureN = featureCellsPerWavelength(plan, plan.projection);
+    const byFeature = byBudget && featureN > byBudget.cellsPerWavelength;
     return {
+      governedBy: byFeature ? 'feature' : 'dispersion',
+      projection3d: projectTo3d(plan, byBudget, mcells, plan.projection, plan.absorberCells),
       budget_deg: plan.budget_deg,
       size_wavelengths: plan.size_wavelengths,
       frequency_Hz: plan.frequency_Hz,
@@ -272,7 +311,7 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
       aspect: plan.aspect,
       mcells_per_second: mcells,
       candidates,
-      recommended: recommendResolution(candidates, plan.budget_deg),
+      recommended: byFeature ? featureRow(plan, byBudget, featureN, mcells) : byBudget,
       planned: info.planned,
       complete: info.complete,
       workers: info.workers,
@@ -311,6 +350,12 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
         `${formatBytes(rec.project.memory_bytes)}, about ${formatSig(rec.project.seconds, 2)} s at ${formatSig(r.mcells_per_second, 3)} Mcells/s`);
     } else {
       lines.push(`no resolution meets the budget ${r.budget_deg}° across ${r.size_wavelengths} wavelengths: recommended is null; try finer cells (--max-cells) or a larger budget`);
+    }
+    if (rec && r.governedBy === 'feature') lines.push('  governed by the thinnest feature (finer than the phase budget needs); its figures are the dispersion relation\'s at that resolution');
+    const p = r.projection3d;
+    if (p) {
+      lines.push(`3D projection (by the 3D dispersion relation, not a 3D run): ${p.cellsPerWavelength} cells per wavelength, dx = ${formatSI(p.dx_m, 'm')}, dt = ${formatSI(p.dt_s, 's')}, ` +
+        `${p.nx} × ${p.ny} × ${p.nz} = ${formatSig(p.cells, 3)} cells, ${formatBytes(p.memory_bytes)}, ${p.steps} steps, about ${formatSig(p.seconds, 2)} s at ${formatSig(p.mcells_per_second, 3)} Mcells/s (${p.speed_source}); governed by ${p.governedBy === 'feature' ? 'the thinnest feature' : 'dispersion'}`);
     }
     return lines;
   },
