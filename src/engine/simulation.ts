@@ -7,6 +7,7 @@ import { waveformValue } from '../scenario/waveforms.ts';
 import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
 import { driveSync } from './batch-driver.ts';
 import type { Complex } from '../exact/complex.ts';
+import { isSimpleMedium } from '../exact/medium.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
 const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
@@ -48,6 +49,9 @@ export class Simulation {
   }
 
   constructor(module: WebAssembly.Module, scenario: Scenario, options: SimulationOptions = {}) {
+    if (!isSimpleMedium(scenario.medium) || (scenario.objects?.length ?? 0) > 0 || (scenario.polarization ?? 'TMz') !== 'TMz') {
+      throw new Error('this engine runs lossless TMz scenarios without objects; use createSimulation() for the others');
+    }
     this.scenario = scenario;
     const layout = (this.layout = layoutOf(scenario));
     const dt = (this.dt = layout.dt);

@@ -11,7 +11,7 @@
  */
 import * as z from 'zod';
 import { closestName } from './did-you-mean.ts';
-import { containerMessage, finiteNumber, listOf, nameField, type FieldHint } from './schema.ts';
+import { containerMessage, finiteNumber, listOf, nameField, type FieldHint } from './schema-kit.ts';
 import { describeValue, quote } from './show.ts';
 import type { Fill, Material, Medium, SceneObject } from './types.ts';
 

@@ -4,6 +4,7 @@
  * that says what to write instead. Neither function throws, whatever it is given.
  */
 import { withWaveformDefaults } from './waveforms.ts';
+import { objectProblems } from './object-rules.ts';
 import { closestName } from './did-you-mean.ts';
 import { locateJsonError } from './json-error.ts';
 import type { PathSegment } from './path.ts';
@@ -12,7 +13,7 @@ import type { RawProblem } from './rules.ts';
 import { crossFieldProblems, FieldReader } from './rules.ts';
 import type { ScenarioFromSchema } from './schema.ts';
 import { FIELD_OWNERS, FORMAT_NAME, FORMAT_VERSION, knownFieldsAt, scenarioSchema, versionMessage } from './schema.ts';
-import type { ParseResult, Problem, Scenario } from './types.ts';
+import type { Medium, ParseResult, Pole, Problem, Scenario, SceneObject } from './types.ts';
 
 /** Path used for problems with the text as a whole (empty, malformed JSON). */
 export const FILE_PATH = '(file)';
@@ -95,7 +96,11 @@ function validate(value: unknown): ParseResult {
   }
   problems.push(...crossFieldProblems(reader));
   if (problems.length > 0 || !parsed.success) return { ok: false, problems: finish(problems) };
-  return { ok: true, scenario: toScenario(parsed.data) };
+  const scenario = toScenario(parsed.data);
+  // objects are judged against the whole scenario (absorber, source, probes), once all else is valid
+  const objectIssues = scenario.objects ? objectProblems(scenario) : [];
+  if (objectIssues.length > 0) return { ok: false, problems: objectIssues };
+  return { ok: true, scenario };
 }
 
 /** Names people reach for that are not fields, with where the quantity is set instead. */
@@ -147,13 +152,44 @@ function finish(raw: RawProblem[]): Problem[] {
   return [...sorted.slice(0, MAX_PROBLEMS - 1), { path: SCENARIO_PATH, message: `${more} more problems not listed; fix the ones above first` }];
 }
 
+type RawPole = { kind: Pole['kind']; deltaEps?: number; tau?: number; omegaP?: number; gamma?: number; omega0?: number; delta?: number };
+type RawMedium = { epsR: number; sigma?: number; poles?: RawPole[] };
+
+/** A pole with its kind's fields only (the rules have checked they are there), in a fixed order. */
+function toPole(p: RawPole): Pole {
+  switch (p.kind) {
+    case 'debye': return { kind: 'debye', deltaEps: p.deltaEps as number, tau: p.tau as number };
+    case 'drude': return { kind: 'drude', omegaP: p.omegaP as number, gamma: p.gamma ?? 0 };
+    case 'lorentz': return { kind: 'lorentz', deltaEps: p.deltaEps as number, omega0: p.omega0 as number, delta: p.delta ?? 0 };
+  }
+}
+
+/** A medium as read: conductivity and poles only when the file gives them, so it writes back as it was. */
+function toMedium(m: RawMedium): Medium {
+  return {
+    epsR: m.epsR,
+    ...(m.sigma !== undefined ? { sigma: m.sigma } : {}),
+    ...(m.poles !== undefined ? { poles: m.poles.map(toPole) } : {}),
+  };
+}
+
+function toObject(o: SceneObject): SceneObject {
+  const material = o.material === 'pec' ? 'pec' : toMedium(o.material as RawMedium);
+  const name = o.name !== undefined ? { name: o.name } : {};
+  switch (o.shape) {
+    case 'circle': return { ...name, shape: 'circle', x: o.x, y: o.y, radius: o.radius, material };
+    case 'rectangle': return { ...name, shape: 'rectangle', x0: o.x0, y0: o.y0, x1: o.x1, y1: o.y1, material };
+    case 'polygon': return { ...name, shape: 'polygon', points: o.points.map(([x, y]) => [x, y]), material };
+  }
+}
+
 function toScenario(d: ScenarioFromSchema): Scenario {
   const waveform = withWaveformDefaults(d.source.waveform);
   return {
     format: FORMAT_NAME,
     version: FORMAT_VERSION,
     grid: { nx: d.grid.nx, ny: d.grid.ny, dx: d.grid.dx, dy: d.grid.dy, courant: d.grid.courant },
-    medium: { epsR: d.medium.epsR },
+    medium: toMedium(d.medium as RawMedium),
     absorber: {
       cells: d.absorber.cells, order: d.absorber.order, sigmaScale: d.absorber.sigmaScale,
       kappaMax: d.absorber.kappaMax, alphaMax: d.absorber.alphaMax,
@@ -163,6 +199,10 @@ function toScenario(d: ScenarioFromSchema): Scenario {
     lines: d.lines.map((l) => ({ name: l.name, x0: l.x0, y0: l.y0, x1: l.x1, y1: l.y1 })),
     frequencies: [...d.frequencies],
     steps: d.steps,
+    // optional sections only when given, so a scenario without them reads and writes as before
+    ...(d.polarization !== undefined ? { polarization: d.polarization } : {}),
+    ...(d.objects !== undefined ? { objects: (d.objects as SceneObject[]).map(toObject) } : {}),
+    ...(d.fill !== undefined ? { fill: d.fill } : {}),
   };
 }
 

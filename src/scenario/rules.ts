@@ -10,7 +10,7 @@ import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
 import { lineNodes, snapIndex, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { PathSegment } from './path.ts';
 import { pathsOverlap } from './path.ts';
-import { ABSORBER_DEFAULTS, MEDIUM_DEFAULTS } from './schema.ts';
+import { ABSORBER_DEFAULTS, MEDIUM_DEFAULTS, POLE_FIELDS } from './schema.ts';
 import { approx, floorTo4Decimals, quote, showBytes, tidy } from './show.ts';
 
 /** A problem before its path is written out. */
@@ -76,6 +76,8 @@ export function crossFieldProblems(r: FieldReader): RawProblem[] {
   checkGridHoldsAbsorber(r, report);
   checkStability(r, report);
   checkWaveformFields(r, report);
+  checkPoles(r, report, ['medium']);
+  for (let i = 0; i < r.count(['objects']); i++) checkPoles(r, report, ['objects', i, 'material']);
   checkFrequencies(r, report);
   checkUniqueNames(r, report);
   checkInterior(r, report);
@@ -132,6 +134,33 @@ function checkWaveformFields(r: FieldReader, report: Report): void {
   }
   if (kind === 'ricker' && has('tau') && valid('tau')) {
     report([...base, 'tau'], 'does not apply to a ricker waveform, whose width follows from f0; remove tau');
+  }
+}
+
+/** What each pole field means, for "required" messages. */
+const POLE_FIELD_HINTS: Record<string, string> = {
+  deltaEps: 'the strength Δε, e.g. 10', tau: 'the relaxation time τ in seconds, e.g. 8e-12', omegaP: 'the plasma frequency ωp in rad/s, e.g. 1.2e16',
+  gamma: 'the collision rate γ in 1/s, e.g. 1e14', omega0: 'the resonance frequency ω0 in rad/s, e.g. 4e15', delta: 'the damping δ in 1/s, e.g. 1e14',
+};
+/** Fields a pole kind needs (others of its kind default to 0). */
+const POLE_REQUIRED: Record<string, readonly string[]> = { debye: ['deltaEps', 'tau'], drude: ['omegaP'], lorentz: ['deltaEps', 'omega0'] };
+
+/** Each pole carries the fields its kind needs and no field of another kind. */
+function checkPoles(r: FieldReader, report: Report, medium: PathSegment[]): void {
+  const list = [...medium, 'poles'];
+  for (let k = 0; k < r.count(list); k++) {
+    const base = [...list, k];
+    const kind = r.string([...base, 'kind']);
+    if (kind === undefined || !(kind in POLE_FIELDS)) continue;
+    const fields = POLE_FIELDS[kind as keyof typeof POLE_FIELDS];
+    for (const name of POLE_REQUIRED[kind]) {
+      if (r.get([...base, name]) === undefined) report([...base, name], `required for a ${kind} pole; give ${POLE_FIELD_HINTS[name]}`);
+    }
+    for (const name of Object.keys(POLE_FIELD_HINTS)) {
+      if (!fields.includes(name) && r.get([...base, name]) !== undefined && r.isValid([...base, name])) {
+        report([...base, name], `does not apply to a ${kind} pole, which takes ${fields.join(' and ')}; remove ${name}`);
+      }
+    }
   }
 }
 

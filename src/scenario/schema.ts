@@ -11,101 +11,23 @@
  */
 import * as z from 'zod';
 import { closestName } from './did-you-mean.ts';
+import { fillSchema, objectsSchema } from './object-schema.ts';
+import {
+  containerMessage, finiteNumber, listOf, nameField, nameProblem, NAME_MAX_LENGTH, numberAtLeast, objectOf, positiveNumber, wholeNumberAtLeast,
+  type FieldHint,
+} from './schema-kit.ts';
+
+export { containerMessage, finiteNumber, listOf, nameField, nameProblem, NAME_MAX_LENGTH, type FieldHint };
+import type { Medium } from './types.ts';
 import { describeValue, quote } from './show.ts';
 
 export const FORMAT_NAME = 'gridgauge-scenario';
 export const FORMAT_VERSION = 1;
 export const WAVEFORM_KINDS = ['gaussian', 'modulated-gaussian', 'ricker'] as const;
+export const POLARIZATIONS = ['TMz', 'TEz'] as const;
 export const MEDIUM_DEFAULTS = { epsR: 1 } as const;
 export const ABSORBER_DEFAULTS = { cells: 10, order: 3, sigmaScale: 1, kappaMax: 5, alphaMax: 0.05 } as const;
 export const AMPLITUDE_DEFAULT = 1;
-export const NAME_MAX_LENGTH = 40;
-
-/** What a number field holds, for messages: "give <what>, e.g. <example>". */
-export interface FieldHint {
-  what: string;
-  example: string;
-  /** For fields with a default: how to get it, e.g. "leave it out for 1". */
-  fallback?: string;
-}
-
-function give(h: FieldHint): string {
-  return `give ${h.what}, e.g. ${h.example}${h.fallback ? `, or ${h.fallback}` : ''}`;
-}
-
-function numberTypeMessage(input: unknown, h: FieldHint): string {
-  if (input === undefined) return `required; ${give(h)}`;
-  if (typeof input === 'number') return `${input} is not a finite number; ${give(h)}`; // NaN or ±Infinity
-  if (typeof input === 'string' && input.trim() !== '' && Number.isFinite(Number(input))) {
-    return `${quote(input)} is text; write the number without quotes: ${Number(input)}`;
-  }
-  return `expected a number but found ${describeValue(input)}; ${give(h)}`;
-}
-
-/** A finite number (zod 4 refuses NaN and ±Infinity as the wrong type). */
-export function finiteNumber(h: FieldHint) {
-  return z.number({ error: (iss) => numberTypeMessage(iss.input, h) });
-}
-
-function positiveNumber(h: FieldHint) {
-  return finiteNumber(h).gt(0, { error: (iss) => `${String(iss.input)} is not above 0; ${give(h)}` });
-}
-
-function numberAtLeast(min: number, h: FieldHint, why: string) {
-  return finiteNumber(h).gte(min, { error: (iss) => `${String(iss.input)} is below ${min}${why}; ${give(h)}` });
-}
-
-function wholeNumberAtLeast(min: number, h: FieldHint, why: string) {
-  return finiteNumber(h)
-    .int({
-      abort: true,
-      error: (iss) => {
-        const x = iss.input as number;
-        if (Number.isInteger(x)) return `${x} is far too large; ${give(h)}`;
-        // the nearest whole number, unless that is at or below the minimum: then the field's own example
-        const near = Math.round(x);
-        return `${x} is not a whole number; use a whole number such as ${near > min ? near : h.example}`;
-      },
-    })
-    .gte(min, { error: (iss) => `${String(iss.input)} is below ${min}${why}; ${give(h)}` });
-}
-
-/** Message for an object or list of the wrong type; `leaveOut` says what leaving it out gives. */
-export function containerMessage(input: unknown, description: string, leaveOut?: string): string {
-  if (input === undefined) return `required; give ${description}`;
-  return `expected ${description} but found ${describeValue(input)}${leaveOut ? `; or leave the field out ${leaveOut}` : ''}`;
-}
-
-function objectOf<T extends z.core.$ZodLooseShape>(shape: T, description: string, leaveOut?: string) {
-  return z.strictObject(shape, {
-    error: (iss) => (iss.code === 'invalid_type' ? containerMessage(iss.input, description, leaveOut) : undefined),
-  });
-}
-
-export function listOf<T extends z.ZodType>(item: T, description: string, leaveOut?: string) {
-  return z.array(item, {
-    error: (iss) => (iss.code === 'invalid_type' ? containerMessage(iss.input, description, leaveOut) : undefined),
-  });
-}
-
-/** The letters-and-digits rule for probe and line names. Returns the problem, or undefined. */
-export function nameProblem(name: string): string | undefined {
-  const chars = Array.from(name);
-  if (chars.length === 0) return `is empty; give a name of 1 to ${NAME_MAX_LENGTH} letters, digits, spaces, "_", "." or "-"`;
-  if (chars.length > NAME_MAX_LENGTH) return `${quote(name)} is ${chars.length} characters long; use at most ${NAME_MAX_LENGTH}`;
-  if (!/^[\p{L}0-9]$/u.test(chars[0])) return `${quote(name)} starts with ${JSON.stringify(chars[0])}; start the name with a letter or digit`;
-  const bad = chars.find((c) => !/^[\p{L}\p{M}0-9 _.\-]$/u.test(c));
-  if (bad !== undefined) return `${quote(name)} contains ${JSON.stringify(bad)}; use only letters, digits, spaces, "_", "." and "-"`;
-  return undefined;
-}
-
-export const nameField = z
-  .string({
-    error: (iss) => iss.input === undefined
-      ? `required; give a name of 1 to ${NAME_MAX_LENGTH} letters, digits, spaces, "_", "." or "-", e.g. "near"`
-      : `expected a name in double quotes but found ${describeValue(iss.input)}`,
-  })
-  .refine((s) => nameProblem(s) === undefined, { error: (iss) => nameProblem(iss.input as string) });
 
 const waveformKind = z.enum(WAVEFORM_KINDS, {
   error: (iss) => {
@@ -134,10 +56,50 @@ export const gridSchema = objectOf({
   courant: positiveNumber({ what: 'the Courant number c·dt/min(dx, dy), at most the stability limit (0.7071 for square cells)', example: '0.5' }),
 }, 'the grid as { "nx", "ny", "dx", "dy", "courant" }');
 
+/** Most dispersion poles a medium may carry. */
+export const MAX_POLES = 6;
+export const POLE_KINDS = ['debye', 'drude', 'lorentz'] as const;
+/** The fields each pole kind takes besides "kind". */
+export const POLE_FIELDS: Record<(typeof POLE_KINDS)[number], readonly string[]> = {
+  debye: ['deltaEps', 'tau'],
+  drude: ['omegaP', 'gamma'],
+  lorentz: ['deltaEps', 'omega0', 'delta'],
+};
+
+const poleKind = z.enum(POLE_KINDS, {
+  error: (iss) => {
+    const kinds = POLE_KINDS.join(', ');
+    if (iss.input === undefined) return `required; use one of ${kinds}`;
+    if (typeof iss.input !== 'string') return `expected one of ${kinds} but found ${describeValue(iss.input)}`;
+    const near = closestName(iss.input, POLE_KINDS);
+    return `${quote(iss.input)} is not a pole kind; use one of ${kinds}${near ? ` (did you mean ${near}?)` : ''}`;
+  },
+});
+
+const nonNegative = (h: FieldHint, why: string) => numberAtLeast(0, h, why);
+const deltaEps = nonNegative({ what: 'the pole\'s strength Δε (dimensionless), 0 or more', example: '10' }, '; a passive medium has no negative Δε');
+
+/** One dispersion pole; fields of the other kinds are refused in rules (by kind). */
+export const poleSchema = objectOf({
+  kind: poleKind,
+  deltaEps: deltaEps.optional(),
+  tau: positiveNumber({ what: 'the Debye relaxation time τ in seconds', example: '8e-12' }).optional(),
+  omegaP: positiveNumber({ what: 'the plasma frequency ωp in rad/s', example: '1.2e16' }).optional(),
+  gamma: nonNegative({ what: 'the collision rate γ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy').optional(),
+  omega0: positiveNumber({ what: 'the resonance frequency ω0 in rad/s', example: '4e15' }).optional(),
+  delta: nonNegative({ what: 'the damping δ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy').optional(),
+}, 'a pole such as { "kind": "debye", "deltaEps": 10, "tau": 8e-12 }');
+
 export const mediumSchema = objectOf({
-  epsR: numberAtLeast(1, { what: 'the relative permittivity εr of the medium, 1 or more', example: '1 for vacuum or air', fallback: 'leave it out for 1' }, ', which no passive medium has')
+  epsR: numberAtLeast(1, { what: 'the relative permittivity εr of the medium (ε∞ with poles), 1 or more', example: '1 for vacuum or air', fallback: 'leave it out for 1' }, ', which no passive medium has')
     .refine((v) => !(v > 1e4), { error: (iss) => `is ${String(iss.input)}, above the largest accepted 1e4 (no common dielectric comes near it); use 1e4 or less` })
     .default(MEDIUM_DEFAULTS.epsR),
+  sigma: nonNegative({ what: 'the conductivity σ in S/m, 0 or more', example: '0.01', fallback: 'leave it out for a lossless medium' }, '; a conductivity cannot be negative')
+    .refine((v) => !(v > 1e9), { error: (iss) => `is ${String(iss.input)} S/m, above the largest accepted 1e9 (beyond metals); use 1e9 or less, or a "pec" object` })
+    .optional(),
+  poles: listOf(poleSchema, 'a list of poles [{ "kind": "debye", "deltaEps": 10, "tau": 8e-12 }, …]', 'for none')
+    .refine((list) => list.length <= MAX_POLES, { error: (iss) => `holds ${(iss.input as unknown[]).length} poles; use at most ${MAX_POLES}` })
+    .optional(),
 }, 'the medium as { "epsR": … }', 'for vacuum');
 
 export const absorberSchema = objectOf({
@@ -215,6 +177,11 @@ export const scenarioSchema = objectOf({
     'for none',
   ).default(() => []),
   steps: wholeNumberAtLeast(1, { what: 'the number of time steps to run', example: '1200' }, '; run at least one step'),
+  polarization: z.enum(POLARIZATIONS, {
+    error: (iss) => `${describeValue(iss.input)} is not a polarization; use "TMz" (Ez, Hx, Hy; the default) or "TEz" (Hz, Ex, Ey)`,
+  }).optional(),
+  objects: objectsSchema(mediumSchema as unknown as z.ZodType<Medium>).optional(),
+  fill: fillSchema.optional(),
 }, 'a scenario object with "grid", "source" and "steps"');
 
 /** The message for a `version` other than 1; a higher whole number means a newer file. */
@@ -245,6 +212,9 @@ const FIELDS_BY_OBJECT: Record<string, readonly string[]> = {
   source: Object.keys(sourceSchema.shape),
   'source.waveform': Object.keys(waveformSchema.shape),
   'probes.[]': Object.keys(probeSchema.shape),
+  'medium.poles.[]': Object.keys(poleSchema.shape),
+  'objects.[].material': Object.keys(mediumSchema.shape),
+  'objects.[].material.poles.[]': Object.keys(poleSchema.shape),
   'lines.[]': Object.keys(lineSchema.shape),
 };
 

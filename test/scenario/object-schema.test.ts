@@ -3,7 +3,7 @@ import * as z from 'zod';
 import { fillSchema, materialSchema, objectSchema, objectsSchema } from '../../src/scenario/object-schema.ts';
 import { mediumSchema } from '../../src/scenario/schema.ts';
 
-const objects = objectsSchema(mediumSchema);
+const objects = objectsSchema(mediumSchema as never);
 
 /** Issues as "path: message" lines, for one list of objects. */
 function issues(value: unknown): string[] {
