@@ -36,7 +36,7 @@
  * negative-ε cylinders; lossy outside medium; observers inside, outside and on the surface;
  * sources within 0.025a of the surface; ka up to 20), and power balance to 1e-15.
  */
-import type { Complex } from './complex.ts';
+import { cAbs as mag, cDiv as div, cMul as mul, cScale as scale, cSub as sub, type Complex } from './complex.ts';
 import { besselJRatioSequence, hankel2, hankel2RatioSequence, type RatioSequence } from './bessel.ts';
 
 /** A point in polar coordinates about the cylinder's axis: ρ in length units, φ in radians. */
@@ -182,17 +182,6 @@ function checkProblem(p: CylinderProblem): void {
   if (p.polarization === 'TEz' && p.eps1[0] === 0 && p.eps1[1] === 0) throw new RangeError('cylinderSeries: eps1 must not be 0 for TEz');
 }
 
-const mul = (a: Complex, b: Complex): Complex => [a[0] * b[0] - a[1] * b[1], a[0] * b[1] + a[1] * b[0]];
-const scale = (a: Complex, s: number): Complex => [a[0] * s, a[1] * s];
-const sub = (a: Complex, b: Complex): Complex => [a[0] - b[0], a[1] - b[1]];
-function div(a: Complex, b: Complex): Complex {
-  const m = Math.max(Math.abs(b[0]), Math.abs(b[1]));
-  const br = b[0] / m;
-  const bi = b[1] / m;
-  const d = (br * br + bi * bi) * m;
-  return [(a[0] * br + a[1] * bi) / d, (a[1] * br - a[0] * bi) / d];
-}
-const mag = (a: Complex): number => Math.hypot(a[0], a[1]);
 /** 1 − (n/z)·r: the derivative C_n'/C_{n−1} from the ratio r = C_n/C_{n−1} (DLMF 10.6.2). */
 const slope = (n: number, r: Complex, z: Complex): Complex => sub([1, 0], scale(div(r, z), n));
 /** First value of a ratio sequence divided by that of another, with their scales. */

@@ -258,8 +258,7 @@ function finishConvergence(plan: ConvergencePlan, levels: LevelResult[], info: {
   };
 }
 
-const deg = (x: number) => `${formatSig(x, 3)}°`;
-const dB = (x: number) => `${formatSig(x, 3)} dB`;
+const deg = (x: number) => `${formatSig(x, 3)}°`, dB = (x: number) => `${formatSig(x, 3)} dB`;
 
 function convergenceCharts(plan: ConvergencePlan, rows: readonly LevelResult[], result: ConvergenceResult | undefined): StudyChart[] {
   const done = (result?.candidates ?? rows).filter((l) => Number.isFinite(l.worst_gci_phase_deg) && l.worst_gci_phase_deg > 0);
@@ -304,10 +303,7 @@ export const convergenceStudy: StudyDefinition<ConvergenceOptions, LevelPlan, Co
       if (r.problem) problems.push(r.problem);
       return r.value;
     };
-    const options: ConvergenceOptions = {
-      levels: num('levels', 'grids', '3'), ratio: num('ratio', 'times finer', '2'),
-      budget_dB: num('budget-db', 'dB', '0.1'), budget_deg: num('budget-deg', 'degrees', '1'),
-    };
+    const options: ConvergenceOptions = { levels: num('levels', 'grids', '3'), ratio: num('ratio', 'times finer', '2'), budget_dB: num('budget-db', 'dB', '0.1'), budget_deg: num('budget-deg', 'degrees', '1') };
     if (problems.length === 0) problems.push(...convergenceOptionProblems(options));
     return problems.length ? { problems } : { options, problems };
   },

@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { buildMaterialMap, type MaterialScenario } from '../../src/engine/build-material-map.ts';
 import type { ComponentPatch, MaterialMap } from '../../src/engine/material-map.ts';
 import { C0 } from '../../src/scenario/constants.ts';
-import { areaInBox, containsPoint, lengthOutside, polygonSignedArea } from '../../src/scenario/geometry.ts';
+import { containsPoint, polygonSignedArea } from '../../src/scenario/geometry.ts';
+import { areaInBox } from '../../src/scenario/geometry-area.ts';
+import { lengthOutside } from '../../src/scenario/geometry-segments.ts';
 import { timeStep, waveSpeed, type Layout } from '../../src/scenario/layout.ts';
 import type { Fill, Medium, Polarization, SceneObject } from '../../src/scenario/types.ts';
 

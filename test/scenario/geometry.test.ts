@@ -1,9 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  areaInBox, boundingBox, clipPolygon, containsPoint, layeredAreas, layeredLengths, lengthOutside, onBoundary,
-  polygonDefect, polygonSignedArea, segmentInside, shapeArea, topShapeAt, type Shape,
-} from '../../src/scenario/geometry.ts';
+import { boundingBox, containsPoint, onBoundary, polygonDefect, polygonSignedArea, shapeArea, topShapeAt, type Shape } from '../../src/scenario/geometry.ts';
+import { areaInBox, clipPolygon, layeredAreas } from '../../src/scenario/geometry-area.ts';
+import { layeredLengths, lengthOutside, segmentInside } from '../../src/scenario/geometry-segments.ts';
 
 const circle = (x: number, y: number, radius: number): Shape => ({ shape: 'circle', x, y, radius });
 const rect = (x0: number, y0: number, x1: number, y1: number): Shape => ({ shape: 'rectangle', x0, y0, x1, y1 });
