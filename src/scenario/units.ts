@@ -29,11 +29,22 @@ export function formatSig(value: number, digits = 3): string {
   return Number(value.toPrecision(digits)).toString().replace('-', '−');
 }
 
-/** Bytes in binary units: "12.5 MiB". */
+/**
+ * Bytes in binary units (IEC 80000-13) with three significant digits, in the unit that keeps
+ * the figure below 1000: 1536 → "1.50 KiB", 1046528 → "0.998 MiB" (not "1.02e+3 KiB").
+ * Whole bytes below 1000 print as they are; NaN prints "—".
+ *
+ * @example
+ * formatBytes(1046528); // "0.998 MiB"
+ */
 export function formatBytes(bytes: number): string {
-  const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB'];
-  let v = bytes;
+  if (Number.isNaN(bytes)) return '—';
+  if (!Number.isFinite(bytes)) return `${bytes < 0 ? '−' : ''}∞ B`;
+  const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB', 'PiB'];
+  let v = Math.abs(bytes);
   let u = 0;
-  while (v >= 1024 && u < units.length - 1) { v /= 1024; u++; }
-  return `${u === 0 ? v : v.toPrecision(3)} ${units[u]}`;
+  // Step up while the figure, once rounded to what is shown, would need four digits.
+  while (u < units.length - 1 && (u === 0 ? Math.round(v) : Number(v.toPrecision(3))) >= 1000) { v /= 1024; u++; }
+  const shown = u === 0 ? String(Math.round(v)) : v.toPrecision(3);
+  return `${bytes < 0 ? '−' : ''}${shown} ${units[u]}`;
 }
