@@ -14,6 +14,7 @@ import type { ParseResult, Scenario } from '../scenario/types.ts';
 import type { DisplayUnits, Draft } from './draft.ts';
 import { frameStats, type FrameStats } from './frame-stats.ts';
 import type { FieldFrame } from './protocol.ts';
+import type { View } from './persist.ts';
 import type { ThemeName } from './theme.ts';
 
 export type RunPhase = 'idle' | 'running' | 'paused' | 'stopping' | 'done' | 'stopped' | 'failed';
@@ -42,15 +43,18 @@ export interface AppState {
   derived: DerivedQuantities | undefined;
   units: DisplayUnits;
   theme: ThemeName;
+  /** The section of the page on show. */
+  view: View;
   run: RunState;
   /** Results of the last finished or stopped run, and the scenario that produced them. */
   results: RunResults | undefined;
   resultsScenario: Scenario | undefined;
-  errorMap: ErrorMap | undefined;
+  /** Error maps of the last run, one per mapped frequency. */
+  errorMaps: ErrorMap[];
   /** Index into the results' frequencies for the line charts. */
   lineFrequency: number;
-  /** Index into the scenario's frequencies for the next run's error map. */
-  mapFrequency: number;
+  /** The error map's chosen frequency, Hz: shown when mapped, mapped first by the next run (undefined: the first). */
+  mapFrequencyHz: number | undefined;
   /** Ez-node updates per second measured on the last run, for the run-time estimate. */
   measuredCellRate: number | undefined;
   notice: Notice | undefined;
