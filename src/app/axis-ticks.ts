@@ -14,9 +14,15 @@
 export function niceTicks(min: number, max: number, maxCount: number): number[] {
   if (!Number.isFinite(min) || !Number.isFinite(max) || max < min || !(maxCount >= 1)) return [];
   if (max === min) return [min];
-  const rough = (max - min) / Math.max(1, Math.floor(maxCount) - 1);
-  const power = 10 ** Math.floor(Math.log10(rough));
-  const step = [1, 2, 5, 10].map((m) => m * power).find((s) => s >= rough * (1 - 1e-9)) as number;
+  // The finest 1-2-5 step that keeps the count within maxCount.
+  const span = max - min;
+  const power = 10 ** Math.floor(Math.log10(span / Math.max(1, Math.floor(maxCount))));
+  const count = (step: number) => Math.floor(max / step + 1e-9) - Math.ceil(min / step - 1e-9) + 1;
+  let step = power;
+  for (const m of [1, 2, 5, 10, 20, 50, 100]) {
+    step = m * power;
+    if (count(step) <= maxCount) break;
+  }
   const digits = Math.max(0, -Math.floor(Math.log10(step)));
   const out: number[] = [];
   for (let k = Math.ceil(min / step - 1e-9); k * step <= max + step * 1e-9; k++) out.push(Number((k * step).toFixed(digits)));
@@ -35,15 +41,17 @@ function roundness(v: number): number {
 
 /**
  * Which ticks of a logarithmic axis get a label: the roundest first (1, then 2 and 5, then
- * 3, 4, 6, 8 …), each only when it lies at least `minGap` pixels from every label already
- * chosen. `positions` are the ticks' pixel positions along the axis. Returns one flag per tick.
+ * 3, 4, 6, 8, then 7 and 9), each only when it lies at least `minGap` pixels from every
+ * label already chosen; a tick that is not a whole multiple of its decade (the end of a
+ * padded range) gets none. `positions` are the ticks' pixel positions along the axis.
+ * Returns one flag per tick.
  *
  * @example
  * logTickLabels([8, 9, 10, 20, 30, 40, 50, 60], [0, 12, 23, 100, 145, 177, 202, 222], 30);
- * // [true, false, false, true, true, true, false, true]
+ * // [false, false, true, true, true, false, true, false]: 10, 20, 30 and 50
  */
 export function logTickLabels(values: readonly number[], positions: readonly number[], minGap: number): boolean[] {
-  const order = values.map((v, k) => k).filter((k) => values[k] > 0 && Number.isFinite(positions[k]))
+  const order = values.map((_v, k) => k).filter((k) => values[k] > 0 && Number.isFinite(positions[k]) && roundness(values[k]) < 4)
     .sort((a, b) => roundness(values[a]) - roundness(values[b]) || a - b);
   const chosen: number[] = [];
   for (const k of order) {

@@ -7,6 +7,7 @@ import { AnimationFrameController, ResizeController } from './controllers.ts';
 import { canvasesToPng, fileSafe, saveBlob } from './download.ts';
 import type { Edit } from './draft.ts';
 import { FilmPlayer, type FrameSource } from './film-player.ts';
+import type { Box } from './label-placement.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
 import { MarkerEditor } from './marker-editor.ts';
@@ -57,6 +58,8 @@ export class GgFieldView extends LitElement {
   private scratch: { canvas?: HTMLCanvasElement; image?: ImageData } = {};
   /** The linear colour scale last drawn, V/m. */
   private linearScale = 0;
+  /** The marker names last drawn and where (canvas px), for checking that none collide. */
+  labels: { text: string; box: Box }[] = [];
 
   constructor() {
     super();
@@ -183,7 +186,7 @@ export class GgFieldView extends LitElement {
       this.setScaleText('no field yet: press Run', '−', '+');
     }
     drawAbsorberOutline(ctx, g, palette, dpr);
-    drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected);
+    this.labels = drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected);
     const line = this.editor.drawing;
     if (line) {
       const a = g.toPixel(line.x0, line.y0);

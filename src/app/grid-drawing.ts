@@ -184,12 +184,12 @@ function haloText(ctx: CanvasRenderingContext2D, text: string, x: number, y: num
  * Source (diamond), probes (rings, named) and lines (segments with square ends, named).
  * `moved` replaces one marker's position while it is being dragged; `selected` is ringed.
  * Names are placed so that none prints over another or over a marker (label-placement.ts);
- * a name with no free spot is left out.
+ * a name with no free spot is left out. Returns the names drawn and their boxes (canvas px).
  */
 export function drawMarkers(
   ctx: CanvasRenderingContext2D, g: GridGeometry, s: Scenario, p: Palette, dpr: number,
   moved?: { ref: MarkerRef; x: number; y: number }, selected?: MarkerRef,
-): void {
+): { text: string; box: Box }[] {
   const at = (ref: MarkerRef, x: number, y: number) => (moved && sameMarker(moved.ref, ref) ? g.toPixel(moved.x, moved.y) : g.toPixel(x, y));
   const obstacles: Box[] = [];
   const occupy = (q: [number, number], r: number) => obstacles.push({ x: q[0] - r, y: q[1] - r, width: 2 * r, height: 2 * r });
@@ -254,8 +254,14 @@ export function drawMarkers(
   ctx.textBaseline = 'top';
   const requests: LabelRequest[] = all.map((l) => ({ at: l.at, width: ctx.measureText(l.text).width + 2 * dpr, height: 14 * dpr }));
   const boxes = placeLabels(requests, 7 * dpr, obstacles, { x: 0, y: 0, width: g.width, height: g.height });
-  boxes.forEach((box, k) => { if (box) haloText(ctx, all[k].text, box.x + dpr, box.y + dpr, p, dpr); });
+  const drawn: { text: string; box: Box }[] = [];
+  boxes.forEach((box, k) => {
+    if (!box) return;
+    haloText(ctx, all[k].text, box.x + dpr, box.y + dpr, p, dpr);
+    drawn.push({ text: all[k].text, box });
+  });
   ctx.restore();
+  return drawn;
 }
 
 function ring(ctx: CanvasRenderingContext2D, q: [number, number], r: number, p: Palette, dpr: number): void {

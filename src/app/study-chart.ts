@@ -26,8 +26,17 @@ function logAxis(palette: () => Palette, name: string, scaleKey: string): uPlot.
   const horizontal = scaleKey === 'x';
   return {
     ...siAxis(palette, name, '', scaleKey),
+    // uPlot's own log filter blanks all but 1 × 10^k while the plot is still being sized;
+    // every split reaches `values`, which picks the labels.
+    filter: (_u: uPlot, splits: number[]) => splits,
     values: (u: uPlot, splits: number[]) => {
-      const show = logTickLabels(splits, splits.map((v) => u.valToPos(v, scaleKey)), horizontal ? 34 : 16);
+      // Pixel positions from the scale and the chart's size: the plot box is not settled
+      // yet while uPlot sizes its axes, so it cannot be asked.
+      const { min, max } = u.scales[scaleKey];
+      const lo = Math.log10(min ?? splits[0]);
+      const span = Math.log10(max ?? splits[splits.length - 1]) - lo || 1;
+      const length = horizontal ? u.width - 90 : u.height - 70;
+      const show = logTickLabels(splits, splits.map((v) => ((Math.log10(v) - lo) / span) * length), horizontal ? 34 : 16);
       return splits.map((v, k) => (show[k] ? formatSig(v, 3) : ''));
     },
   };
