@@ -68,6 +68,13 @@ describe('studies panel', () => {
     expect(picked).toBeLessThanOrEqual(40);
     const dx = () => page.evaluate(() =>
       (document.querySelector('gg-app') as unknown as { store: { state: { check: { ok: boolean; scenario?: { grid: { dx: number } } } } } }).store.state.check.scenario?.grid.dx ?? NaN);
+    // the log axes label more than one tick each (1-2-5 and more where they fit)
+    const labelled = await panel(page).locator('gg-study-chart').evaluateAll((charts) => charts.flatMap((c) => {
+      const u = (c as unknown as { chart?: { axes: { _values?: string[] }[] } }).chart;
+      return u ? u.axes.map((a) => (a._values ?? []).filter((v) => v !== '').length) : [];
+    }));
+    expect(labelled.length).toBeGreaterThan(0); // common practice, no source
+    for (const n of labelled) expect(n).toBeGreaterThanOrEqual(3); // common practice, no source
     const before = await dx();
     await button(page, 'Apply recommendation').click();
     await expect.poll(dx).toBeLessThan(before);
