@@ -55,7 +55,7 @@ export class GgApp extends LitElement {
     .notice ul { margin: 0.25rem 0 0; padding-left: 1.1rem; font-size: 0.85rem; }
     .notice > div { flex: 1; min-width: 0; overflow-wrap: anywhere; }
     .runbar { margin: 0.8rem 1.1rem 0; display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; }
-    .runbar gg-run-controls { flex: 1; min-width: 0; }
+    .runbar gg-run-controls { flex: 1 1 20rem; min-width: 0; }
     main { padding: 1rem 1.1rem 2rem; }
     .columns { display: grid; grid-template-columns: minmax(20rem, 26rem) minmax(0, 1fr); gap: 1rem; align-items: start; }
     #view-results { grid-template-columns: minmax(18rem, 22rem) minmax(0, 1fr); }

@@ -70,7 +70,7 @@ export class AppController {
       this.store.set({
         notice: {
           kind: 'error', title: `${file.name} was not loaded`,
-          lines: [`It is ${(file.size / 2 ** 20).toFixed(1)} MiB; scenario files are limited to 5 MiB. A scenario is a few kilobytes of JSON: is this the right file?`],
+          lines: [`It is ${formatBytes(file.size)}; scenario files are limited to 5 MiB. A scenario is a few kilobytes of JSON: is this the right file?`],
         },
       });
       return false;

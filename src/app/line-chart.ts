@@ -1,6 +1,7 @@
 import { css, html, LitElement, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { LinePoint, LineResult } from '../compare/results.ts';
+import { cAbs, cArg, type Complex } from '../exact/complex.ts';
 import { formatSI } from '../scenario/units.ts';
 import { ResizeController, TeardownController } from './controllers.ts';
 import { fileSafe, saveBlob } from './download.ts';
@@ -11,7 +12,7 @@ import { chartsPng, fitCharts, lastIndex, restingLegend, series, siAxis, uPlot, 
 const HEIGHT = 210;
 
 const finite = (v: number) => (Number.isFinite(v) ? v : null);
-const degrees = (re: number, im: number) => (Math.atan2(im, re) * 180) / Math.PI;
+const degrees = (z: Complex) => (cArg(z) * 180) / Math.PI;
 
 /** Phases along the line made continuous (±360° steps removed), so the lag reads as a slope. */
 function unwrap(phases: (number | null)[]): (number | null)[] {
@@ -99,10 +100,10 @@ export class GgLineChart extends LitElement {
   private data(): uPlot.AlignedData[] {
     const pts = this.points();
     const s = pts.map((p) => p.s_m);
-    const magF = pts.map((p) => finite(Math.hypot(p.fdtd[0], p.fdtd[1])));
-    const magE = pts.map((p) => finite(Math.hypot(p.exact[0], p.exact[1])));
-    const phF = unwrap(pts.map((p) => finite(degrees(p.fdtd[0], p.fdtd[1]))));
-    const phE = unwrap(pts.map((p) => finite(degrees(p.exact[0], p.exact[1]))));
+    const magF = pts.map((p) => finite(cAbs(p.fdtd)));
+    const magE = pts.map((p) => finite(cAbs(p.exact)));
+    const phF = unwrap(pts.map((p) => finite(degrees(p.fdtd))));
+    const phE = unwrap(pts.map((p) => finite(degrees(p.exact))));
     const magErr = pts.map((p) => finite(p.mag_err_dB));
     const phErr = pts.map((p) => finite(p.phase_err_deg));
     const predicted = pts.map((p) => finite(p.predicted_phase_err_deg));

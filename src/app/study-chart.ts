@@ -5,7 +5,7 @@ import { formatSig } from '../scenario/units.ts';
 import { SingleChartElement } from './single-chart.ts';
 import type { Palette, ThemeName } from './theme.ts';
 import { logTickLabels } from './axis-ticks.ts';
-import { lastIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { fullestIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
 const CHART_HEIGHT = 240;
 /** Colours for numbered curves, cycled (mid tones that read on both themes). */
@@ -106,7 +106,7 @@ export class GgStudyChart extends SingleChartElement {
           return { ...series({ label: s.label, colour, ...(s.style === 'dashed' ? { dash: [6, 4], width: 1 } : {}) }), spanGaps: true };
         }),
       ],
-      ...restingLegend((u) => lastIndex(u, 1)),
+      ...restingLegend(fullestIndex),
     };
   }
 

@@ -84,11 +84,24 @@ export function fitCharts(charts: (uPlot | undefined)[], width: number, height: 
  */
 export function restingLegend(resting: (u: uPlot) => number | null): { legend: uPlot.Legend; hooks: uPlot.Hooks.Arrays } {
   const settle = (u: uPlot) => {
-    if (u.legend.idx !== null && u.legend.idx !== undefined) return;
+    if (u.cursor.left !== undefined && u.cursor.left >= 0) return; // the pointer is on the plot
     const k = resting(u);
-    if (k !== null) u.setLegend({ idx: k }, false);
+    if (k !== null && k !== u.legend.idx) u.setLegend({ idx: k }, false);
   };
   return { legend: { show: true, live: true }, hooks: { setLegend: [settle], ready: [settle], setData: [settle] } };
+}
+
+/** The last index at which the most series have a value (a study chart's curves differ in x), or null. */
+export function fullestIndex(u: uPlot): number | null {
+  let best: number | null = null;
+  let most = 0;
+  const n = u.data[0]?.length ?? 0;
+  for (let k = 0; k < n; k++) {
+    let count = 0;
+    for (let s = 1; s < u.data.length; s++) if (u.data[s][k] !== null && u.data[s][k] !== undefined) count++;
+    if (count > 0 && count >= most) { most = count; best = k; }
+  }
+  return best;
 }
 
 /** The index of the largest |value| of series `s`, or null when it has none. */
