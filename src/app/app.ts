@@ -5,6 +5,7 @@ import { demoScenario } from '../scenario/defaults.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { validateScenario } from '../scenario/parse.ts';
 import type { Scenario } from '../scenario/types.ts';
+import { encodeScenario } from '../scenario/url.ts';
 import { AppController } from './controller.ts';
 import { EventController } from './controllers.ts';
 import type { DisplayUnits, Edit } from './draft.ts';
@@ -98,7 +99,8 @@ export class GgApp extends LitElement {
     // A link pasted into the address bar of the open page (the page's own updates fire no event).
     new EventController(this, () => window, 'hashchange', () => {
       const encoded = linkParameter();
-      if (encoded !== undefined) this.controller.openLink(encoded);
+      const { check } = this.state;
+      if (encoded !== undefined && (!check.ok || encoded !== encodeScenario(check.scenario))) this.controller.openLink(encoded);
       if (linkView() !== this.state.view) this.controller.setView(linkView());
     });
     new EventController<CustomEvent<{ edits: Edit[] }>>(this, () => this, 'gg-edit', (e) => {
@@ -121,8 +123,8 @@ export class GgApp extends LitElement {
     this.controller.setView(view);
   }
 
-  connectedCallback(): void {
-    super.connectedCallback();
+  /** Runs the demo (or `?autorun=1`) once the page has drawn, so nothing waits for the press of a button. */
+  protected firstUpdated(): void {
     const autorun = new URLSearchParams(window.location.search).get('autorun');
     const untouchedDemo = JSON.stringify(this.state.draft) === JSON.stringify(demoScenario());
     if (autorun === '1' || (autorun !== '0' && (this.openedFrom === 'demo' || untouchedDemo) && this.state.check.ok)) {
@@ -211,7 +213,8 @@ export class GgApp extends LitElement {
   render() {
     const s = this.state;
     const shown = s.check.ok ? s.check.scenario : this.lastValid;
-    const nextMaps = s.check.ok && s.derived ? plannedMaps(s.check.scenario, s.derived, s.mapFrequencyHz) : [];
+    // Undefined while the set-up is wrong: which maps the next run makes is not known yet.
+    const nextMaps = s.check.ok && s.derived ? plannedMaps(s.check.scenario, s.derived, s.mapFrequencyHz) : undefined;
     const stale = !!s.results && !!s.resultsScenario && JSON.stringify(s.resultsScenario) !== JSON.stringify(s.check.ok ? s.check.scenario : undefined);
     const dark = s.theme === 'dark';
     const finished = (s.run.phase === 'done' || s.run.phase === 'stopped') && !!s.results;
@@ -250,7 +253,7 @@ export class GgApp extends LitElement {
           <div class="column">
             <h2 id="setup-heading">Set-up</h2>
             <gg-setup .draft=${s.draft} .problems=${s.check.ok ? [] : s.check.problems} .derived=${s.derived} .units=${s.units}
-              .maps=${nextMaps.length} .cellRate=${s.measuredCellRate} theme=${s.theme}
+              .maps=${nextMaps?.length ?? 0} .cellRate=${s.measuredCellRate} theme=${s.theme}
               @gg-units=${(e: CustomEvent<DisplayUnits>) => this.controller.setUnits(e.detail)}
               @gg-load-demo=${() => this.controller.loadDemo()}></gg-setup>
           </div>

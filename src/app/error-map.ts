@@ -51,8 +51,8 @@ export class GgErrorMap extends LitElement {
   @property({ attribute: false }) scenario: Scenario | undefined;
   /** Analysis frequencies of the scenario being edited, Hz. */
   @property({ attribute: false }) frequencies: number[] = [];
-  /** Frequencies the next run will map, Hz. */
-  @property({ attribute: false }) nextRun: number[] = [];
+  /** Frequencies the next run will map, Hz (undefined while the set-up is wrong). */
+  @property({ attribute: false }) nextRun: number[] | undefined;
   /** The frequency chosen in the menu, Hz (undefined: the first map). */
   @property({ type: Number }) chosen: number | undefined;
   @property() lengthUnit = 'mm';

@@ -42,11 +42,12 @@ export interface MapMenu {
 
 /**
  * The menu of the error map: every frequency of the set-up (`frequencies`) and every map of
- * the last run, each labelled so that its label never disagrees with the picture.
+ * the last run, each labelled so that its label never disagrees with the picture. `nextRun`
+ * is what the next run maps (undefined while the set-up is wrong and that is not known).
  */
-export function mapMenu(maps: readonly ErrorMap[], frequencies: readonly number[], nextRun: readonly number[], chosenHz: number | undefined): MapMenu {
+export function mapMenu(maps: readonly ErrorMap[], frequencies: readonly number[], nextRun: readonly number[] | undefined, chosenHz: number | undefined): MapMenu {
   const all = [...frequencies, ...maps.map((m) => m.f_Hz).filter((f) => !frequencies.includes(f))];
-  const roomForOne = nextRun.length > 0;
+  const roomForOne = nextRun === undefined || nextRun.length > 0;
   const options = all.map((f) => {
     const mapped = maps.some((m) => m.f_Hz === f);
     const suffix = mapped ? (frequencies.includes(f) ? '' : ' (last run)') : roomForOne ? ' (next run)' : ' (no room for a map)';
@@ -57,7 +58,7 @@ export function mapMenu(maps: readonly ErrorMap[], frequencies: readonly number[
   const map = maps.find((m) => m.f_Hz === pick.f_Hz);
   const f = formatSI(pick.f_Hz, 'Hz');
   const note = map ? ''
-    : nextRun.includes(pick.f_Hz) ? `The last run made no map at ${f}; this choice applies to the next run, which maps ${f}. Press Run.`
+    : nextRun?.includes(pick.f_Hz) ? `The last run made no map at ${f}; this choice applies to the next run, which maps ${f}. Press Run.`
     : roomForOne ? `This choice applies to the next run: press Run to map ${f}.`
     : `A map at ${f} does not fit under the memory cap beside this run; use a smaller grid for error maps.`;
   return { options, shown: { f_Hz: pick.f_Hz, note }, map };

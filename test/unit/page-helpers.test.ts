@@ -8,6 +8,9 @@ import { validateScenario } from '../../src/scenario/parse.ts';
 import { logTickLabels, niceTicks } from '../../src/app/axis-ticks.ts';
 import { messageInUnit, scaledNumeral } from '../../src/app/field-messages.ts';
 import { placeLabels, type Box } from '../../src/app/label-placement.ts';
+import { ENGINE_MAPS_PER_RUN, mapMenu, plannedMaps } from '../../src/app/map-plan.ts';
+import type { ErrorMap } from '../../src/compare/error-map.ts';
+import { deriveQuantities } from '../../src/scenario/derived.ts';
 
 /** The model's message for `path` after breaking the demo with `change`. */
 function messageFor(path: string, change: (s: any) => void): string {
@@ -98,5 +101,37 @@ describe('label placement on the maps', () => {
     const [none] = placeLabels([{ at: [5, 5], width: 300, height: 12 }], 7, [], { x: 0, y: 0, width: 100, height: 100 });
     expect(none).toBeNull(); // too wide for the map, common practice, no source
     expect(placeLabels([], 7)).toEqual([]); // common practice, no source
+  });
+});
+
+describe('error maps of a run and the map menu', () => {
+  const map = (f_Hz: number): ErrorMap => ({ nx: 2, ny: 2, f_Hz, db: new Float32Array(4) });
+
+  it('maps the chosen frequency first, then the others, as many as fit and the engine keeps', () => {
+    const s = demoScenario();
+    const d = deriveQuantities(s);
+    const all = plannedMaps(s, { ...d, errorMapsFitting: 3 }, 1e10);
+    expect(all).toEqual([1e10, 5e9, 1.5e10].slice(0, ENGINE_MAPS_PER_RUN)); // common practice, no source
+    expect(plannedMaps(s, d, undefined)[0]).toBe(5e9); // nothing chosen: the first frequency, common practice, no source
+    expect(plannedMaps(s, d, 7e9)[0]).toBe(5e9); // a frequency the set-up lacks is not mapped, common practice, no source
+    expect(plannedMaps(s, { ...d, errorMapsFitting: 0 }, 1e10)).toEqual([]); // no room beside the run, common practice, no source
+  });
+
+  it('never labels a frequency with a picture of another', () => {
+    const menu = mapMenu([map(5e9)], [5e9, 1e10], [1e10], 1e10);
+    expect(menu.options.map((o) => o.label)).toEqual(['5 GHz', '10 GHz (next run)']); // common practice, no source
+    expect(menu.map).toBeUndefined(); // 10 GHz chosen, no map of 5 GHz shown under it, common practice, no source
+    expect(menu.shown?.note).toContain('applies to the next run'); // common practice, no source
+    const two = mapMenu([map(5e9), map(1e10)], [5e9, 1e10], [1e10], 1e10);
+    expect(two.map?.f_Hz).toBe(1e10); // switches without a run, common practice, no source
+    expect(two.shown?.note).toBe(''); // common practice, no source
+    const gone = mapMenu([map(5e9)], [1e10], [1e10], undefined);
+    expect(gone.options.map((o) => o.label)).toEqual(['10 GHz (next run)', '5 GHz (last run)']); // common practice, no source
+    expect(gone.map?.f_Hz).toBe(5e9); // nothing chosen: the map there is, under its own label, common practice, no source
+    const full = mapMenu([], [1e10], [], 1e10);
+    expect(full.options[0].label).toBe('10 GHz (no room for a map)'); // common practice, no source
+    expect(full.shown?.note).toContain('does not fit'); // common practice, no source
+    expect(mapMenu([], [], [], undefined)).toEqual({ options: [], shown: undefined, map: undefined }); // common practice, no source
+    expect(mapMenu([], [1e10], undefined, undefined).options[0].label).toBe('10 GHz (next run)'); // set-up being fixed, common practice, no source
   });
 });
