@@ -114,6 +114,7 @@ export class GgErrorMap extends LitElement {
 
   protected firstUpdated(): void {
     paintColourBar(this.bar, sequentialLut());
+    this.setReadout();
   }
 
   protected updated(changed: PropertyValues<this>): void {
@@ -131,8 +132,8 @@ export class GgErrorMap extends LitElement {
     const palette = palettes[this.theme];
     const { shown, map: m } = this.menu;
     const s = this.scenario;
-    this.setReadout();
     if (!m || !s || m.nx !== s.grid.nx || m.ny !== s.grid.ny) {
+      this.setReadout();
       ctx.fillStyle = palette.raised;
       ctx.fillRect(0, 0, this.canvas.width, this.canvas.height);
       ctx.fillStyle = palette.muted;
