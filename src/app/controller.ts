@@ -2,27 +2,26 @@
  * What the person's actions do: edit the scenario, run it in the worker, load and save
  * files. Holds no state of its own beyond the worker; everything shown lives in the store.
  */
-import { runFiles, type RunFiles } from '../io/outputs.ts';
-import { deriveQuantities, scenarioMemoryBytes } from '../scenario/derived.ts';
+import { runExtras, runFiles, type RunFiles } from '../io/outputs.ts';
+import { deriveQuantities } from '../scenario/derived.ts';
+import { scenarioWarnings } from '../scenario/warnings.ts';
 import { MEMORY_CAP_BYTES } from '../scenario/memory.ts';
+import { fullGridDftBytes } from '../scenario/readouts.ts';
 import { formatBytes } from '../scenario/units.ts';
 import { demoScenario } from '../scenario/defaults.ts';
-import { parseScenarioText, validateScenario } from '../scenario/parse.ts';
+import { parseScenarioText, SCENARIO_FILE_CAP_BYTES, validateScenario } from '../scenario/parse.ts';
 import { decodeScenario } from '../scenario/url.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { applyEdits, type DisplayUnits, type Draft, type Edit } from './draft.ts';
 import { saveText } from './download.ts';
-import { saveDraft, saveTheme, saveUnits, writeLink } from './persist.ts';
+import { plannedMaps } from './map-plan.ts';
+import { saveDraft, saveTheme, saveUnits, writeLink, writeView, type View } from './persist.ts';
 import type { FromWorker } from './protocol.ts';
 import { RunClient } from './run-client.ts';
 import type { Store } from './store.ts';
 import type { ThemeName } from './theme.ts';
 
 /** Largest scenario file the page reads, bytes (the command line has the same cap). */
-export const SCENARIO_FILE_CAP_BYTES = 5 * 1024 * 1024;
-
-/** Node updates per second assumed for the run-time estimate before anything was measured. */
-export const ASSUMED_CELL_RATE = 150e6;
 
 export class AppController {
   private readonly client: RunClient;
@@ -48,8 +47,7 @@ export class AppController {
   setDraft(draft: Draft): void {
     const check = validateScenario(draft);
     const derived = check.ok ? deriveQuantities(check.scenario) : undefined;
-    const mapFrequency = check.ok ? Math.min(this.store.state.mapFrequency, Math.max(0, check.scenario.frequencies.length - 1)) : this.store.state.mapFrequency;
-    this.store.set({ draft, check, derived, mapFrequency });
+    this.store.set({ draft, check, derived, warnings: check.ok ? scenarioWarnings(check.scenario) : [] });
     clearTimeout(this.saveTimer);
     this.saveTimer = setTimeout(() => {
       saveDraft(draft);
@@ -72,7 +70,7 @@ export class AppController {
       this.store.set({
         notice: {
           kind: 'error', title: `${file.name} was not loaded`,
-          lines: [`It is ${(file.size / 2 ** 20).toFixed(1)} MiB; scenario files are limited to 5 MiB. A scenario is a few kilobytes of JSON: is this the right file?`],
+          lines: [`It is ${formatBytes(file.size)}; scenario files are limited to 5 MiB. A scenario is a few kilobytes of JSON: is this the right file?`],
         },
       });
       return false;
@@ -135,8 +133,15 @@ export class AppController {
     this.store.set({ lineFrequency: index });
   }
 
-  setMapFrequency(index: number): void {
-    this.store.set({ mapFrequency: index });
+  /** Shows the error map at `hz` if the last run made it; the next run maps it first. */
+  setMapFrequency(hz: number): void {
+    this.store.set({ mapFrequencyHz: hz });
+  }
+
+  /** Switches the page to one of its sections and keeps the choice in the address. */
+  setView(view: View): void {
+    writeView(view);
+    this.store.set({ view });
   }
 
   // ---- the run ----
@@ -155,26 +160,26 @@ export class AppController {
   }
 
   private startRun(scenario: Scenario): void {
-    const { run, mapFrequency } = this.store.state;
+    const { run, mapFrequencyHz } = this.store.state;
     if (run.phase === 'running' || run.phase === 'paused' || run.phase === 'stopping') return;
     const runId = ++this.runId;
     this.runScenario = scenario;
     performance.clearMarks('gg-run-pressed');
     performance.mark('gg-run-pressed');
     this.store.setFrame(undefined);
-    // The error map's full-grid DFT costs 8 bytes a node on top of the run: leave it out,
-    // and say so, when it would take the run past the memory cap.
-    const withMap = scenarioMemoryBytes(scenario, true);
-    const mapFits = withMap <= MEMORY_CAP_BYTES;
+    // Each error map is a full-grid DFT on top of the run: as many as fit under the cap.
+    const derived = deriveQuantities(scenario);
+    const mapFrequencies = plannedMaps(scenario, derived, mapFrequencyHz);
+    const noRoom = scenario.frequencies.length > 0 && mapFrequencies.length === 0;
+    const withMap = derived.memory_bytes + fullGridDftBytes(scenario.grid.nx, scenario.grid.ny);
     this.store.set({
       run: { phase: 'running', runId, stepsDone: 0, stepsTotal: scenario.steps, stepsPerSecond: 0 },
-      notice: mapFits ? undefined : {
+      notice: noRoom ? {
         kind: 'info', title: 'Running without the error map',
-        lines: [`With the error map this run would need ${formatBytes(withMap)}, above the ${formatBytes(MEMORY_CAP_BYTES)} cap; probes, lines and exports are unaffected.`],
-      },
+        lines: [`With an error map this run would need ${formatBytes(withMap)}, above the ${formatBytes(MEMORY_CAP_BYTES)} cap; probes, lines and exports are unaffected.`],
+      } : undefined,
     });
-    const fullGridFrequency = mapFits ? scenario.frequencies[Math.min(mapFrequency, scenario.frequencies.length - 1)] : undefined;
-    if (!this.client.send({ type: 'run', runId, scenario, fullGridFrequency })) {
+    if (!this.client.send({ type: 'run', runId, scenario, mapFrequencies })) {
       this.store.setRun({ phase: 'failed', message: 'the run worker could not be started; reload the page' });
     }
   }
@@ -205,7 +210,7 @@ export class AppController {
     this.store.setFrame(undefined);
     this.store.set({
       run: { phase: 'idle', runId: this.runId, stepsDone: 0, stepsTotal: 0, stepsPerSecond: 0 },
-      results: undefined, resultsScenario: undefined, errorMap: undefined,
+      results: undefined, resultsScenario: undefined, errorMaps: [],
     });
   }
 
@@ -238,14 +243,15 @@ export class AppController {
         this.store.set({
           run: {
             ...run, phase: m.stopped ? 'stopped' : 'done', stepsDone: m.results.steps,
-            stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds, timings: m.timings,
+            stepsPerSecond: m.stepsPerSecond, runSeconds: m.runSeconds, timings: m.timings, energyLeftDb: m.energyLeftDb,
+            stopped: m.blowUp ?? (m.stopped ? { step: m.results.steps, reason: 'interrupted' } : undefined),
             message: m.blowUp
               ? `run stopped: ${m.blowUp.reason}. What was recorded up to step ${m.blowUp.step} is kept and can be exported`
               : m.stopped ? `stopped at step ${m.results.steps} of ${m.results.stepsPlanned}; the comparison covers the steps taken` : undefined,
           },
           results: m.results,
           resultsScenario: scenario,
-          errorMap: m.errorMap,
+          errorMaps: m.errorMaps,
           lineFrequency: Math.min(this.store.state.lineFrequency, Math.max(0, m.results.frequencies.length - 1)),
           measuredCellRate: scenario ? m.stepsPerSecond * scenario.grid.nx * scenario.grid.ny : this.store.state.measuredCellRate,
         });
@@ -275,8 +281,6 @@ export class AppController {
   runFiles(): RunFiles | undefined {
     const { results, resultsScenario, run } = this.store.state;
     if (!results || !resultsScenario) return undefined;
-    return runFiles(results, {
-      run_seconds: run.runSeconds ?? 0, nx: resultsScenario.grid.nx, ny: resultsScenario.grid.ny, frequencies_Hz: results.frequencies,
-    });
+    return runFiles(results, runExtras(resultsScenario, results, { runSeconds: run.runSeconds ?? 0, energyLeftDb: run.energyLeftDb ?? NaN, stopped: run.stopped }));
   }
 }

@@ -7,10 +7,17 @@ import type { ReactiveController, ReactiveControllerHost } from 'lit';
 
 type Host = ReactiveControllerHost & HTMLElement;
 
-/** Re-renders the host whenever `target` fires `event` (the store's "change"). */
-export class EventController implements ReactiveController {
-  private readonly onEvent = () => this.host.requestUpdate();
-  constructor(private readonly host: Host, private readonly target: () => EventTarget | undefined, private readonly event = 'change') {
+/**
+ * Listens to `event` on `target` while the host is connected: calls `handler`, or by
+ * default re-renders the host (the store's "change"). The target may be the host itself
+ * (events its children send up) or `window` (hashchange).
+ */
+export class EventController<E extends Event = Event> implements ReactiveController {
+  private readonly onEvent = (e: Event) => (this.handler ? this.handler(e as E) : this.host.requestUpdate());
+  constructor(
+    private readonly host: Host, private readonly target: () => EventTarget | undefined, private readonly event = 'change',
+    private readonly handler?: (e: E) => void,
+  ) {
     host.addController(this);
   }
   hostConnected(): void { this.target()?.addEventListener(this.event, this.onEvent); }
@@ -81,6 +88,37 @@ export class IntervalController implements ReactiveController {
     if (this.timer !== undefined) clearInterval(this.timer);
     this.timer = undefined;
   }
+}
+
+/**
+ * Calls `draw` once in the next animation frame however often `request` is called before
+ * it, and never after the host has left the page.
+ */
+export class AnimationFrameController implements ReactiveController {
+  private handle: number | undefined;
+  constructor(host: Host, private readonly draw: () => void) {
+    host.addController(this);
+  }
+  request(): void {
+    if (this.handle !== undefined) return;
+    this.handle = requestAnimationFrame(() => {
+      this.handle = undefined;
+      this.draw();
+    });
+  }
+  hostConnected(): void {}
+  hostDisconnected(): void {
+    if (this.handle !== undefined) cancelAnimationFrame(this.handle);
+    this.handle = undefined;
+  }
+}
+
+/** Runs `teardown` when the host leaves the page (a worker pool, a chart), so it holds nothing afterwards. */
+export class TeardownController implements ReactiveController {
+  constructor(host: Host, private readonly teardown: () => void) {
+    host.addController(this);
+  }
+  hostDisconnected(): void { this.teardown(); }
 }
 
 export type TaskStatus = 'idle' | 'running' | 'done' | 'cancelled' | 'failed';

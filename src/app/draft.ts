@@ -47,14 +47,28 @@ export function applyEdits(draft: Draft, edits: readonly Edit[]): Draft {
   return out;
 }
 
-/** The units the form shows; the draft is always SI. */
-export interface DisplayUnits { length: 'm' | 'mm' | 'µm'; frequency: 'MHz' | 'GHz' | 'THz'; time: 'ns' | 'ps' | 'fs' }
+/** The unit menus of the form, smallest power last; the draft is always SI. */
+export const UNIT_CHOICES = {
+  length: ['m', 'mm', 'µm'],
+  frequency: ['Hz', 'kHz', 'MHz', 'GHz', 'THz'],
+  time: ['s', 'ms', 'µs', 'ns', 'ps', 'fs'],
+} as const;
+
+export type UnitKind = keyof typeof UNIT_CHOICES;
+
+/** The units the form shows, one per kind of quantity. */
+export type DisplayUnits = { [K in UnitKind]: (typeof UNIT_CHOICES)[K][number] };
+
+/** The SI unit of each kind, as the scenario model's messages write it. */
+export const SI_UNIT: Record<UnitKind, string> = { length: 'm', frequency: 'Hz', time: 's' };
 
 export const DEFAULT_UNITS: DisplayUnits = { length: 'mm', frequency: 'GHz', time: 'ps' };
 
 /** Power of ten of each unit in SI. */
 export const UNIT_EXPONENT: Record<string, number> = {
-  m: 0, mm: -3, 'µm': -6, MHz: 6, GHz: 9, THz: 12, ns: -9, ps: -12, fs: -15,
+  m: 0, mm: -3, 'µm': -6,
+  Hz: 0, kHz: 3, MHz: 6, GHz: 9, THz: 12,
+  s: 0, ms: -3, 'µs': -6, ns: -9, ps: -12, fs: -15,
 };
 
 const NUMERAL = /^([+-]?(?:\d+\.?\d*|\.\d+))(?:[eE]([+-]?\d+))?$/;

@@ -1,11 +1,14 @@
-import { css, html, LitElement, type PropertyValues } from 'lit';
+import { css, html, LitElement, nothing, type PropertyValues } from 'lit';
 import { customElement, property, query, state } from 'lit/decorators.js';
 import type { ErrorMap } from '../compare/error-map.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { LUT_SIZE, sequentialLut } from './colormap.ts';
+import { AnimationFrameController, ResizeController } from './controllers.ts';
 import { canvasesToPng, saveBlob } from './download.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
+import { mapMenu } from './map-plan.ts';
+import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
 /** Fixed colour ranges, dB below 0 dB; 0 stands for "fit to the interior's values". */
@@ -29,23 +32,30 @@ function fittedRange(m: ErrorMap, cells: number): [number, number] {
 }
 
 /**
- * |FDTD/exact − 1| in dB over the whole grid at one frequency, from the run's full-grid
- * running DFT: dispersion anisotropy shows as error rising faster along the axes than the
- * diagonals, absorber reflections as ripples. Dark is small error, bright is large.
+ * |FDTD/exact − 1| in dB over the whole grid at one analysis frequency, from the run's
+ * full-grid running DFTs: dispersion anisotropy shows as error rising faster along the axes
+ * than the diagonals, absorber reflections as ripples. Dark is small error, bright is large.
+ * The menu switches between the maps the last run made; a frequency without one says the
+ * next run maps it, and the picture is never of another frequency than the one named.
  */
 @customElement('gg-error-map')
 export class GgErrorMap extends LitElement {
   static styles = [controlStyles, gridMapStyles, css`
     .legend .muted { white-space: normal; }
-    .note { font-size: 0.8rem; margin: 0.25rem 0 0; min-height: 1.2em; }
+    .note { font-size: 0.8rem; margin: 0.25rem 0 0; }
   `];
 
-  @property({ attribute: false }) map: ErrorMap | undefined;
-  /** The scenario of the run that made the map. */
+  /** The maps of the last run, one per mapped frequency. */
+  @property({ attribute: false }) maps: ErrorMap[] = [];
+  /** The scenario of the run that made the maps. */
   @property({ attribute: false }) scenario: Scenario | undefined;
-  /** Analysis frequencies of the scenario being edited, Hz, and the one chosen for the next map. */
+  /** Analysis frequencies of the scenario being edited, Hz. */
   @property({ attribute: false }) frequencies: number[] = [];
-  @property({ type: Number }) chosen = 0;
+  /** Frequencies the next run will map, Hz (undefined while the set-up is wrong). */
+  @property({ attribute: false }) nextRun: number[] | undefined;
+  /** The frequency chosen in the menu, Hz (undefined: the first map). */
+  @property({ type: Number }) chosen: number | undefined;
+  @property() lengthUnit = 'mm';
   @property() theme: ThemeName = 'light';
 
   @state() private range = 0;
@@ -53,22 +63,31 @@ export class GgErrorMap extends LitElement {
   private shownRange: [number, number] = [-80, 0];
 
   @query('canvas.map') private canvas!: HTMLCanvasElement;
+  @query('canvas.axes') private axes!: HTMLCanvasElement;
   @query('canvas.bar') private bar!: HTMLCanvasElement;
   @query('.readout') private readout!: HTMLElement;
 
-  private sizer: ResizeObserver | undefined;
   private scratch: { canvas?: HTMLCanvasElement; image?: ImageData } = {};
-  private drawRequested = false;
+  private readonly painter = new AnimationFrameController(this, () => this.draw());
+
+  constructor() {
+    super();
+    new ResizeController(this, () => this.renderRoot.querySelector('.stage'), () => this.fitCanvas());
+  }
+
+  private get menu() {
+    return mapMenu(this.maps, this.frequencies, this.nextRun, this.chosen);
+  }
 
   render() {
-    const next = this.frequencies[this.chosen];
-    const differs = this.map && next !== undefined && next !== this.map.f_Hz;
+    const { options, shown, map } = this.menu;
+    const fHz = shown?.f_Hz;
     return html`
       <div class="tools">
         <label>Map at
-          <select aria-label="Frequency of the error map (used by the next run)" ?disabled=${this.frequencies.length === 0}
-            @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gg-map-frequency', { detail: { index: Number((e.target as HTMLSelectElement).value) }, bubbles: true, composed: true }))}>
-            ${this.frequencies.map((f, k) => html`<option value=${k} ?selected=${k === this.chosen}>${formatSI(f, 'Hz')}</option>`)}
+          <select aria-label="Frequency of the error map" ?disabled=${options.length === 0}
+            @change=${(e: Event) => this.dispatchEvent(new CustomEvent('gg-map-frequency', { detail: { hz: Number((e.target as HTMLSelectElement).value) }, bubbles: true, composed: true }))}>
+            ${options.map((o) => html`<option value=${o.f_Hz} ?selected=${o.f_Hz === fHz}>${o.label}</option>`)}
           </select>
         </label>
         <label>Range
@@ -76,72 +95,59 @@ export class GgErrorMap extends LitElement {
             ${RANGES.map((r) => html`<option value=${r} ?selected=${r === this.range}>${r === 0 ? 'fit to the interior' : `−${r} dB to 0 dB`}</option>`)}
           </select>
         </label>
-        <button class="small" @click=${this.savePng} ?disabled=${!this.map} aria-label="Save the error map as PNG">PNG</button>
+        <button class="small" @click=${this.savePng} ?disabled=${!map} aria-label="Save the error map as PNG">PNG</button>
       </div>
       <div class="stage">
-        <canvas class="map" role="img" aria-label=${this.map ? `Error map at ${formatSI(this.map.f_Hz, 'Hz')}: |FDTD/exact − 1| in dB over the grid` : 'Error map, empty until a run finishes'}
-          @pointermove=${this.onMove} @pointerleave=${() => { if (this.readout) this.readout.textContent = '\u00a0'; }}></canvas>
+        <canvas class="map" role="img" aria-label=${map ? `Error map at ${formatSI(map.f_Hz, 'Hz')}: |FDTD/exact − 1| in dB over the grid` : 'Error map, empty until a run maps this frequency'}
+          @pointermove=${this.onMove} @pointerleave=${() => this.setReadout()}></canvas>
+        <canvas class="axes" aria-hidden="true"></canvas>
       </div>
       <div class="legend">
         <span class="num lo"></span><canvas class="bar" width="256" height="1" aria-hidden="true"></canvas><span class="num hi"></span>
-        <span class="muted">|FDTD/exact − 1|${this.map ? ` at ${formatSI(this.map.f_Hz, 'Hz')}` : ''}; absorber grey</span>
+        <span class="muted">|FDTD/exact − 1|${map ? ` at ${formatSI(map.f_Hz, 'Hz')}` : ''}; absorber grey</span>
       </div>
-      <p class="readout muted num">\u00a0</p>
-      ${this.frequencies.length === 0 ? html`<p class="note muted">Add an analysis frequency in Set-up to get an error map.</p>` : ''}
-      ${differs ? html`<p class="note muted">The next run maps ${formatSI(next as number, 'Hz')}.</p>` : ''}
+      <p class="readout muted num"></p>
+      ${this.frequencies.length === 0 && this.maps.length === 0 ? html`<p class="note muted">Add an analysis frequency in Set-up to get an error map.</p>` : nothing}
+      ${shown && !map ? html`<p class="note muted" data-note="next-run">${shown.note}</p>` : nothing}
     `;
   }
 
   protected firstUpdated(): void {
-    this.sizer = new ResizeObserver(() => this.fitCanvas());
-    this.sizer.observe(this.renderRoot.querySelector('.stage') as HTMLElement);
     paintColourBar(this.bar, sequentialLut());
-  }
-
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.sizer?.disconnect();
-    this.sizer = undefined;
+    this.setReadout();
   }
 
   protected updated(changed: PropertyValues<this>): void {
     if (changed.has('scenario')) this.fitCanvas();
-    this.requestDraw();
+    this.painter.request();
   }
 
   private fitCanvas(): void {
-    if (fitCanvasToGrid(this.renderRoot.querySelector('.stage'), this.canvas, this.scenario)) this.requestDraw();
-  }
-
-  private requestDraw(): void {
-    if (this.drawRequested) return;
-    this.drawRequested = true;
-    requestAnimationFrame(() => {
-      this.drawRequested = false;
-      this.draw();
-    });
+    if (fitCanvasToGrid(this.renderRoot.querySelector('.stage'), this.canvas, this.scenario)) this.painter.request();
   }
 
   private draw(): void {
     if (!this.canvas) return;
     const ctx = this.canvas.getContext('2d') as CanvasRenderingContext2D;
     const palette = palettes[this.theme];
-    const m = this.map;
+    const { shown, map: m } = this.menu;
     const s = this.scenario;
     if (!m || !s || m.nx !== s.grid.nx || m.ny !== s.grid.ny) {
+      this.setReadout();
       ctx.fillStyle = palette.raised;
       ctx.fillRect(0, 0, this.canvas.width, this.canvas.height);
       ctx.fillStyle = palette.muted;
       ctx.font = `${13 * (window.devicePixelRatio || 1)}px system-ui, sans-serif`;
       ctx.textAlign = 'center';
-      ctx.fillText('The error map appears when a run finishes', this.canvas.width / 2, this.canvas.height / 2);
+      const text = shown ? `No map at ${formatSI(shown.f_Hz, 'Hz')} yet` : 'The error map appears when a run finishes';
+      ctx.fillText(text, this.canvas.width / 2, this.canvas.height / 2);
+      this.setRangeText('', '');
+      if (s && this.axes) paintAxesCanvas(this.axes, this.canvas, s.grid, this.lengthUnit, palette);
       return;
     }
     const lut = sequentialLut();
     const [lo, hi] = (this.shownRange = this.range === 0 ? fittedRange(m, s.absorber.cells) : [-this.range, 0]);
-    const loText = this.renderRoot.querySelector('.legend .lo');
-    const hiText = this.renderRoot.querySelector('.legend .hi');
-    if (loText && hiText) { loText.textContent = `${formatSig(lo, 3)} dB`; hiText.textContent = `${formatSig(hi, 3)} dB`; }
+    this.setRangeText(`${formatSig(lo, 3)} dB`, `${formatSig(hi, 3)} dB`);
     const scale = (LUT_SIZE - 1) / (hi - lo);
     const grey = this.theme === 'dark' ? 0x3a4248 : 0xc9ced1;
     const missing = (255 << 24) | ((grey & 255) << 16) | (grey & 0xff00) | (grey >>> 16);
@@ -163,12 +169,23 @@ export class GgErrorMap extends LitElement {
     const dpr = window.devicePixelRatio || 1;
     drawAbsorberOutline(ctx, g, palette, dpr);
     drawMarkers(ctx, g, s, palette, dpr);
+    if (this.axes) paintAxesCanvas(this.axes, this.canvas, s.grid, this.lengthUnit, palette);
+  }
+
+  private setRangeText(lo: string, hi: string): void {
+    const loText = this.renderRoot.querySelector('.legend .lo');
+    const hiText = this.renderRoot.querySelector('.legend .hi');
+    if (loText && hiText) { loText.textContent = lo; hiText.textContent = hi; }
+  }
+
+  private setReadout(text = 'Point at the map for x, y and the error there.'): void {
+    if (this.readout) this.readout.textContent = text;
   }
 
   private onMove = (e: PointerEvent) => {
-    const m = this.map;
+    const m = this.menu.map;
     const s = this.scenario;
-    if (!m || !s || !this.readout) return;
+    if (!m || !s) return;
     const r = this.canvas.getBoundingClientRect();
     const g = GridGeometry.of(s, r.width, r.height);
     const [i, j] = g.toNode(e.clientX - r.left, e.clientY - r.top);
@@ -176,14 +193,17 @@ export class GgErrorMap extends LitElement {
     const v = m.db[j * m.nx + i];
     const cells = s.absorber.cells;
     const inAbsorber = i < cells || j < cells || i > m.nx - 1 - cells || j > m.ny - 1 - cells;
-    this.readout.textContent = `node (${i}, ${j}) · x = ${formatSI(i * s.grid.dx, 'm', 4)}, y = ${formatSI(j * s.grid.dy, 'm', 4)} · `
-      + (inAbsorber ? 'in the absorber (not compared)' : `error ${Number.isFinite(v) ? `${formatSig(v, 3)} dB` : 'undefined (source node)'}`);
+    this.setReadout(`x = ${lengthText(i * s.grid.dx, this.lengthUnit)}, y = ${lengthText(j * s.grid.dy, this.lengthUnit)} · `
+      + (inAbsorber ? 'in the absorber (not compared)' : `error ${Number.isFinite(v) ? `${formatSig(v, 3)} dB` : 'undefined (source node)'}`)
+      + ` · node (${i}, ${j})`);
   };
 
   private async savePng(): Promise<void> {
-    if (!this.map) return;
+    const m = this.menu.map;
+    if (!m || !this.scenario) return;
     const p = palettes[this.theme];
-    saveBlob('error-map.png', await canvasesToPng([this.canvas], p.surface, p.ink, `|FDTD/exact − 1| at ${formatSI(this.map.f_Hz, 'Hz')}, ${formatSig(this.shownRange[0], 3)} dB to ${formatSig(this.shownRange[1], 3)} dB`));
+    const picture = mapWithAxes(this.canvas, this.scenario.grid, this.lengthUnit, p);
+    saveBlob('error-map.png', await canvasesToPng([picture], p.surface, p.ink, `|FDTD/exact − 1| at ${formatSI(m.f_Hz, 'Hz')}, ${formatSig(this.shownRange[0], 3)} dB to ${formatSig(this.shownRange[1], 3)} dB`));
   }
 }
 

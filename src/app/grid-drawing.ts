@@ -7,28 +7,34 @@ import { css } from 'lit';
 import { snapIndex } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { LUT_SIZE } from './colormap.ts';
+import { placeLabels, type Box, type LabelRequest } from './label-placement.ts';
+import { AXIS_MARGIN } from './map-axes.ts';
 import type { Palette } from './theme.ts';
 
-/** Styles both grid maps share: tool row, canvas stage, legend with its colour bar, readout. */
+/** Styles both grid maps share: tool row, canvas stage with its axes, legend with its colour bar, readout. */
 export const gridMapStyles = css`
   :host { display: block; }
   .tools { display: flex; gap: 0.6rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-bottom: 0.4rem; }
   .tools label { display: inline-flex; gap: 0.3rem; align-items: center; }
-  .stage { position: relative; width: 100%; }
-  canvas.map { display: block; border-radius: 4px; background: var(--gg-raised); }
-  .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; white-space: nowrap; }
+  .stage { position: relative; width: 100%; padding: ${AXIS_MARGIN.top}px 0 ${AXIS_MARGIN.bottom}px ${AXIS_MARGIN.left}px; box-sizing: border-box; }
+  canvas.map { display: block; position: relative; z-index: 1; border-radius: 2px; background: var(--gg-raised); }
+  canvas.axes { position: absolute; left: 0; top: 0; pointer-events: none; }
+  .legend { display: flex; align-items: center; gap: 0.4rem; font-size: 0.78rem; margin-top: 0.35rem; flex-wrap: wrap; }
+  .legend .num { white-space: nowrap; }
   canvas.bar { height: 10px; width: min(260px, 50%); border-radius: 2px; }
-  .readout { font-size: 0.8rem; min-height: 1.2em; margin: 0.25rem 0 0; }
+  .readout { font-size: 0.8rem; min-height: 2.4em; margin: 0.25rem 0 0; }
 `;
 
 /**
- * Sizes `canvas` to fill `stage`'s width with the grid's physical aspect (at most 70 % of the
- * window's height), in device pixels for a sharp image. Returns whether anything was sized.
+ * Sizes `canvas` to fill `stage`'s width (less the room for the axes) with the grid's
+ * physical aspect, at most 70 % of the window's height, in device pixels for a sharp image.
+ * Returns whether anything was sized: a hidden stage (no width) keeps the last size.
  */
 export function fitCanvasToGrid(stage: HTMLElement | null, canvas: HTMLCanvasElement | undefined, s: Scenario | undefined): boolean {
   if (!stage || !canvas) return false;
   const aspect = s ? (s.grid.ny * s.grid.dy) / (s.grid.nx * s.grid.dx) : 1;
-  let width = stage.clientWidth;
+  let width = stage.clientWidth - AXIS_MARGIN.left - AXIS_MARGIN.right;
+  if (width <= 0) return false;
   const maxHeight = Math.max(200, window.innerHeight * 0.7);
   if (width * aspect > maxHeight) width = maxHeight / aspect;
   const height = width * aspect;
@@ -167,7 +173,6 @@ export function sameMarker(a: MarkerRef | undefined, b: MarkerRef | undefined): 
 }
 
 function haloText(ctx: CanvasRenderingContext2D, text: string, x: number, y: number, p: Palette, dpr: number): void {
-  ctx.font = `${12 * dpr}px system-ui, sans-serif`;
   ctx.lineWidth = 3 * dpr;
   ctx.strokeStyle = p.markerHalo;
   ctx.strokeText(text, x, y);
@@ -178,14 +183,18 @@ function haloText(ctx: CanvasRenderingContext2D, text: string, x: number, y: num
 /**
  * Source (diamond), probes (rings, named) and lines (segments with square ends, named).
  * `moved` replaces one marker's position while it is being dragged; `selected` is ringed.
+ * Names are placed so that none prints over another or over a marker (label-placement.ts);
+ * a name with no free spot is left out. Returns the names drawn and their boxes (canvas px).
  */
 export function drawMarkers(
   ctx: CanvasRenderingContext2D, g: GridGeometry, s: Scenario, p: Palette, dpr: number,
   moved?: { ref: MarkerRef; x: number; y: number }, selected?: MarkerRef,
-): void {
+): { text: string; box: Box }[] {
   const at = (ref: MarkerRef, x: number, y: number) => (moved && sameMarker(moved.ref, ref) ? g.toPixel(moved.x, moved.y) : g.toPixel(x, y));
+  const obstacles: Box[] = [];
+  const occupy = (q: [number, number], r: number) => obstacles.push({ x: q[0] - r, y: q[1] - r, width: 2 * r, height: 2 * r });
+  const labels: { text: string; at: [number, number] }[] = [];
   ctx.save();
-  ctx.textBaseline = 'middle';
   s.lines.forEach((l, index) => {
     const a = at({ kind: 'line-end', index, end: 0 }, l.x0, l.y0);
     const b = at({ kind: 'line-end', index, end: 1 }, l.x1, l.y1);
@@ -204,10 +213,12 @@ export function drawMarkers(
       ctx.lineWidth = 1.5 * dpr;
       ctx.fillRect(q[0] - r, q[1] - r, 2 * r, 2 * r);
       ctx.strokeRect(q[0] - r, q[1] - r, 2 * r, 2 * r);
+      occupy(q, r + dpr);
       if (selected && sameMarker(selected, { kind: 'line-end', index, end })) ring(ctx, q, 9 * dpr, p, dpr);
     }
-    haloText(ctx, l.name, (a[0] + b[0]) / 2 + 6 * dpr, (a[1] + b[1]) / 2 - 10 * dpr, p, dpr);
+    labels.push({ text: l.name, at: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2] });
   });
+  const probeLabels: typeof labels = [];
   s.probes.forEach((pr, index) => {
     const q = at({ kind: 'probe', index }, pr.x, pr.y);
     ctx.lineWidth = 4 * dpr;
@@ -218,8 +229,9 @@ export function drawMarkers(
     ctx.lineWidth = 2 * dpr;
     ctx.strokeStyle = p.marker;
     ctx.stroke();
+    occupy(q, 6 * dpr);
     if (selected && sameMarker(selected, { kind: 'probe', index })) ring(ctx, q, 10 * dpr, p, dpr);
-    haloText(ctx, pr.name, q[0] + 8 * dpr, q[1] - 8 * dpr, p, dpr);
+    probeLabels.push({ text: pr.name, at: q });
   });
   const q = at({ kind: 'source' }, s.source.x, s.source.y);
   const r = 6 * dpr;
@@ -234,8 +246,22 @@ export function drawMarkers(
   ctx.lineWidth = 2 * dpr;
   ctx.fill();
   ctx.stroke();
+  occupy(q, r + dpr);
   if (selected?.kind === 'source') ring(ctx, q, 11 * dpr, p, dpr);
+  // Probe names first: they matter more than a line's name when space runs out.
+  const all = [...probeLabels, ...labels];
+  ctx.font = `${12 * dpr}px system-ui, sans-serif`;
+  ctx.textBaseline = 'top';
+  const requests: LabelRequest[] = all.map((l) => ({ at: l.at, width: ctx.measureText(l.text).width + 2 * dpr, height: 14 * dpr }));
+  const boxes = placeLabels(requests, 7 * dpr, obstacles, { x: 0, y: 0, width: g.width, height: g.height });
+  const drawn: { text: string; box: Box }[] = [];
+  boxes.forEach((box, k) => {
+    if (!box) return;
+    haloText(ctx, all[k].text, box.x + dpr, box.y + dpr, p, dpr);
+    drawn.push({ text: all[k].text, box });
+  });
   ctx.restore();
+  return drawn;
 }
 
 function ring(ctx: CanvasRenderingContext2D, q: [number, number], r: number, p: Palette, dpr: number): void {

@@ -1,15 +1,18 @@
 import { css, html, LitElement, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { LinePoint, LineResult } from '../compare/results.ts';
+import { cAbs, cArg, type Complex } from '../exact/complex.ts';
 import { formatSI } from '../scenario/units.ts';
+import { ResizeController, TeardownController } from './controllers.ts';
 import { fileSafe, saveBlob } from './download.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
-import { chartsPng, fitWidth, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { chartsPng, fitCharts, lastIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
-const HEIGHT = 170;
+/** Height of each chart, px: room for the longest rotated axis label over the plot. */
+const HEIGHT = 210;
 
 const finite = (v: number) => (Number.isFinite(v) ? v : null);
-const degrees = (re: number, im: number) => (Math.atan2(im, re) * 180) / Math.PI;
+const degrees = (z: Complex) => (cArg(z) * 180) / Math.PI;
 
 /** Phases along the line made continuous (±360° steps removed), so the lag reads as a slope. */
 function unwrap(phases: (number | null)[]): (number | null)[] {
@@ -52,7 +55,12 @@ export class GgLineChart extends LitElement {
   @property() theme: ThemeName = 'light';
 
   private charts: uPlot[] = [];
-  private sizer: ResizeObserver | undefined;
+
+  constructor() {
+    super();
+    new ResizeController(this, () => this.renderRoot.querySelector('.plots'), (rect) => fitCharts(this.charts, rect.width, HEIGHT));
+    new TeardownController(this, () => this.destroyCharts());
+  }
 
   render() {
     const l = this.line;
@@ -66,7 +74,7 @@ export class GgLineChart extends LitElement {
         <div class="plot" data-k="1" role="img" aria-label="Phase of Ez/I along line ${l?.name ?? ''}, FDTD and exact"></div>
         <div class="plot" data-k="2" role="img" aria-label="Magnitude and phase error along line ${l?.name ?? ''}, with the predicted phase error"></div>
       </div>
-      <p class="note muted">Phase of Ez/I with the e<sup>+jωt</sup> convention, made continuous along the line; a negative phase error means the grid lags the exact wave.</p>
+      <p class="note muted">Phase of Ez/I with the e<sup>+jωt</sup> convention, made continuous along the line; a negative phase error means the grid lags the exact wave. Legends: values under the pointer, or at the end of the line.</p>
     `;
   }
 
@@ -78,13 +86,6 @@ export class GgLineChart extends LitElement {
       const d = this.data();
       this.charts.forEach((c, k) => c.setData(d[k]));
     }
-  }
-
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.sizer?.disconnect();
-    this.sizer = undefined;
-    this.destroyCharts();
   }
 
   private destroyCharts(): void {
@@ -99,10 +100,10 @@ export class GgLineChart extends LitElement {
   private data(): uPlot.AlignedData[] {
     const pts = this.points();
     const s = pts.map((p) => p.s_m);
-    const magF = pts.map((p) => finite(Math.hypot(p.fdtd[0], p.fdtd[1])));
-    const magE = pts.map((p) => finite(Math.hypot(p.exact[0], p.exact[1])));
-    const phF = unwrap(pts.map((p) => finite(degrees(p.fdtd[0], p.fdtd[1]))));
-    const phE = unwrap(pts.map((p) => finite(degrees(p.exact[0], p.exact[1]))));
+    const magF = pts.map((p) => finite(cAbs(p.fdtd)));
+    const magE = pts.map((p) => finite(cAbs(p.exact)));
+    const phF = unwrap(pts.map((p) => finite(degrees(p.fdtd))));
+    const phE = unwrap(pts.map((p) => finite(degrees(p.exact))));
     const magErr = pts.map((p) => finite(p.mag_err_dB));
     const phErr = pts.map((p) => finite(p.phase_err_deg));
     const predicted = pts.map((p) => finite(p.predicted_phase_err_deg));
@@ -120,7 +121,7 @@ export class GgLineChart extends LitElement {
     const d = this.data();
     const xAxis = () => siAxis(palette, 's', 'm', 'x');
     const sSeries: uPlot.Series = { label: 's', value: (_u, v) => (v === null ? '—' : formatSI(v, 'm', 4)) };
-    const base = { width, height: HEIGHT, scales: { x: { time: false } }, cursor: { drag: { x: true, y: false } } };
+    const base = { width, height: HEIGHT, scales: { x: { time: false } }, cursor: { drag: { x: true, y: false } }, ...restingLegend((u) => lastIndex(u, 1)) };
     this.charts = [
       new uPlot({
         ...base,
@@ -144,7 +145,6 @@ export class GgLineChart extends LitElement {
         ],
       }, d[2], hosts[2]),
     ];
-    this.sizer ??= fitWidth(this.renderRoot.querySelector('.plots') as HTMLElement, () => this.charts, HEIGHT);
   }
 
   private async savePng(): Promise<void> {

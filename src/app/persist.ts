@@ -1,18 +1,24 @@
 /**
  * What the page keeps between visits: the scenario being edited (localStorage, so a reload
- * does not lose work), the theme and units, and the scenario in the address (`#s=…`, the
- * same encoding as src/scenario/url.ts) so that a copied link reproduces it.
+ * does not lose work), the theme and units, and in the address the scenario (`#s=…`, the
+ * same encoding as src/scenario/url.ts) so that a copied link reproduces it, and the section
+ * of the page on show (`view=results`; left out for the set-up, the first section).
  */
 import { demoScenario } from '../scenario/defaults.ts';
 import { decodeScenario, encodeScenario } from '../scenario/url.ts';
 import type { Problem, Scenario } from '../scenario/types.ts';
-import { DEFAULT_UNITS, type DisplayUnits, type Draft } from './draft.ts';
+import { DEFAULT_UNITS, UNIT_CHOICES, type DisplayUnits, type Draft } from './draft.ts';
 import type { ThemeName } from './theme.ts';
 
 const KEY_DRAFT = 'gridgauge.draft.v1';
 const KEY_THEME = 'gridgauge.theme';
 const KEY_UNITS = 'gridgauge.units';
 const LINK_KEY = 's';
+const VIEW_KEY = 'view';
+
+/** The sections of the page, in the order of its navigation. */
+export const VIEWS = ['setup', 'results', 'studies', 'report'] as const;
+export type View = (typeof VIEWS)[number];
 
 export interface InitialScenario {
   draft: Draft;
@@ -46,11 +52,38 @@ function writeJson(key: string, value: unknown): void {
   }
 }
 
+function hashParams(): URLSearchParams {
+  return new URLSearchParams(window.location.hash.replace(/^#/, ''));
+}
+
 /** The encoded scenario in the address, if any. */
 export function linkParameter(): string | undefined {
-  const hash = window.location.hash.replace(/^#/, '');
-  const value = new URLSearchParams(hash).get(LINK_KEY);
-  return value ?? undefined;
+  return hashParams().get(LINK_KEY) ?? undefined;
+}
+
+/** The section named in the address, or the set-up. */
+export function linkView(): View {
+  const v = hashParams().get(VIEW_KEY);
+  return (VIEWS as readonly (string | null)[]).includes(v) ? (v as View) : 'setup';
+}
+
+/** Writes the address's parameters (view first, then the scenario) without adding a history entry. */
+function writeHash(params: URLSearchParams): void {
+  const url = new URL(window.location.href);
+  const parts: string[] = [];
+  const view = params.get(VIEW_KEY);
+  if (view && view !== 'setup') parts.push(`${VIEW_KEY}=${view}`);
+  const link = params.get(LINK_KEY);
+  if (link) parts.push(`${LINK_KEY}=${link}`);
+  url.hash = parts.join('&');
+  if (url.href !== window.location.href) window.history.replaceState(null, '', url);
+}
+
+/** Puts the section on show in the address, keeping the scenario there. */
+export function writeView(view: View): void {
+  const params = hashParams();
+  params.set(VIEW_KEY, view);
+  writeHash(params);
 }
 
 /** The scenario to open with: one from the link, else the one saved here, else the demo. */
@@ -73,11 +106,11 @@ export function saveDraft(draft: Draft): void {
   writeJson(KEY_DRAFT, draft);
 }
 
-/** Puts the scenario in the address without adding a history entry. */
+/** Puts the scenario in the address without adding a history entry, keeping the section on show. */
 export function writeLink(scenario: Scenario): void {
-  const url = new URL(window.location.href);
-  url.hash = `${LINK_KEY}=${encodeScenario(scenario)}`;
-  if (url.href !== window.location.href) window.history.replaceState(null, '', url);
+  const params = hashParams();
+  params.set(LINK_KEY, encodeScenario(scenario));
+  writeHash(params);
 }
 
 export function savedTheme(): ThemeName {
@@ -91,14 +124,10 @@ export function saveTheme(theme: ThemeName): void {
 }
 
 export function savedUnits(): DisplayUnits {
-  const u = readJson(KEY_UNITS) as Partial<DisplayUnits> | undefined;
-  const pick = <K extends keyof DisplayUnits>(k: K, allowed: readonly DisplayUnits[K][]) =>
-    u && allowed.includes(u[k] as DisplayUnits[K]) ? (u[k] as DisplayUnits[K]) : DEFAULT_UNITS[k];
-  return {
-    length: pick('length', ['m', 'mm', 'µm']),
-    frequency: pick('frequency', ['MHz', 'GHz', 'THz']),
-    time: pick('time', ['ns', 'ps', 'fs']),
-  };
+  const u = readJson(KEY_UNITS) as Partial<Record<keyof DisplayUnits, unknown>> | undefined;
+  const pick = <K extends keyof DisplayUnits>(k: K): DisplayUnits[K] =>
+    u && (UNIT_CHOICES[k] as readonly unknown[]).includes(u[k]) ? (u[k] as DisplayUnits[K]) : DEFAULT_UNITS[k];
+  return { length: pick('length'), frequency: pick('frequency'), time: pick('time') };
 }
 
 export function saveUnits(units: DisplayUnits): void {

@@ -9,7 +9,8 @@ import type { RunResults } from '../compare/results.ts';
 import type { Scenario } from '../scenario/types.ts';
 
 export type ToWorker =
-  | { type: 'run'; runId: number; scenario: Scenario; fullGridFrequency?: number }
+  /** `mapFrequencies`: the analysis frequencies to accumulate a full-grid DFT (an error map) for, Hz. */
+  | { type: 'run'; runId: number; scenario: Scenario; mapFrequencies: number[] }
   | { type: 'pause' }
   | { type: 'resume' }
   | { type: 'stop' }
@@ -33,14 +34,18 @@ export type FromWorker =
   | { type: 'progress'; runId: number; stepsDone: number; stepsPerSecond: number; paused: boolean }
   | ({ type: 'frame' } & FieldFrame)
   | {
-    type: 'done'; runId: number; stopped: boolean; results: RunResults; errorMap: ErrorMap | undefined;
+    type: 'done'; runId: number; stopped: boolean; results: RunResults;
+    /** One map per mapped frequency, in the order asked for. */
+    errorMaps: ErrorMap[];
     /** Wall-clock seconds from receiving the scenario to the results being ready. */
     runSeconds: number;
     /** Time steps per second while stepping (pauses excluded). */
     stepsPerSecond: number;
-    /** Where the worker's time went, ms: set-up, stepping (with frames), results, error map. */
+    /** Where the worker's time went, ms: set-up, stepping (with frames), results, error maps. */
     timings: { setup: number; stepping: number; results: number; errorMap: number };
     /** Set when the run was stopped because the field blew up: the step and the likely cause. */
     blowUp?: { step: number; reason: string };
+    /** Field energy left at the end over its peak after the source ended, dB (NaN if unknown). */
+    energyLeftDb: number;
   }
   | { type: 'failed'; runId: number; message: string };

@@ -23,7 +23,7 @@ export class GgRunControls extends LitElement {
     :host { display: block; }
     .bar { display: flex; gap: 0.5rem; align-items: center; flex-wrap: wrap; }
     .status { display: flex; gap: 0.75rem; align-items: center; flex-wrap: wrap; font-size: 0.85rem; margin-top: 0.45rem; }
-    progress { width: min(320px, 100%); height: 0.7rem; accent-color: var(--gg-accent); }
+    progress { flex: 1 1 8rem; max-width: 320px; min-width: 0; height: 0.7rem; accent-color: var(--gg-accent); }
     .phase { font-weight: 600; }
     .phase.failed { color: var(--gg-error); }
     .blocked { color: var(--gg-error); font-size: 0.85rem; }

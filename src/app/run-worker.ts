@@ -3,10 +3,10 @@
  * resume and stop are heard between batches, sends progress and Ez frames at animation
  * rate, and at the end (or on stop) sends the comparison results and the error map.
  */
-import { errorMapOf } from '../compare/error-map.ts';
+import { errorMapOf, type ErrorMap } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
 import { drive } from '../engine/batch-driver.ts';
-import { Simulation } from '../engine/simulation.ts';
+import { Simulation, type SimulationOptions } from '../engine/simulation.ts';
 import { loadEngineModule } from '../engine/wasm.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import type { Scenario } from '../scenario/types.ts';
@@ -61,6 +61,21 @@ function frameOf(sim: Simulation, runId: number): FromWorker & { type: 'frame' }
   return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data };
 }
 
+/**
+ * Engine options for the full-grid DFTs of the error maps. Today's Simulation keeps one
+ * (`fullGridFrequency`); with the engine's `fullGridFrequencies` this returns
+ * `{ fullGridFrequencies: frequencies }` and {@link mapsOf} reads `errorMapOf(sim, k)` per k.
+ */
+function mapOptions(frequencies: readonly number[]): SimulationOptions {
+  return { fullGridFrequency: frequencies[0] };
+}
+
+/** The error maps a finished (or stopped) run accumulated, in the order asked for. */
+function mapsOf(sim: Simulation): ErrorMap[] {
+  const map = errorMapOf(sim);
+  return map ? [map] : [];
+}
+
 async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   const { runId, scenario } = message;
   const t0 = performance.now();
@@ -68,7 +83,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   stopRequested = false;
   let sim: Simulation | undefined;
   try {
-    sim = await Simulation.create(scenario, { fullGridFrequency: message.fullGridFrequency });
+    sim = await Simulation.create(scenario, mapOptions(message.mapFrequencies));
     const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
@@ -104,13 +119,13 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     const tStepped = performance.now();
     const results = collectResults(sim);
     const tResults = performance.now();
-    const errorMap = errorMapOf(sim);
+    const errorMaps = mapsOf(sim);
     const tMap = performance.now();
     const transfer: Transferable[] = [];
     for (const p of results.probes) transfer.push(p.fdtd.buffer, p.exact.buffer);
-    if (errorMap) transfer.push(errorMap.db.buffer);
+    for (const m of errorMaps) transfer.push(m.db.buffer);
     post({
-      type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMap, blowUp,
+      type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMaps, blowUp, energyLeftDb: outcome.energyLeftDb,
       runSeconds: (performance.now() - t0) / 1000,
       stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
       timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults },
@@ -167,11 +182,11 @@ function warmUp(module: WebAssembly.Module): void {
     frequencies: [s.frequencies[0]],
     steps: 240,
   };
-  const sim = new Simulation(module, scenario, { fullGridFrequency: scenario.frequencies[0] });
+  const sim = new Simulation(module, scenario, mapOptions(scenario.frequencies));
   for (let k = 0; k < 12; k++) sim.step(20);
   frameOf(sim, 0);
   collectResults(sim);
-  errorMapOf(sim);
+  mapsOf(sim);
   sim.dispose();
 }
 

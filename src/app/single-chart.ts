@@ -1,7 +1,8 @@
 import { LitElement, type PropertyValues } from 'lit';
 import { property } from 'lit/decorators.js';
+import { ResizeController, TeardownController } from './controllers.ts';
 import { palettes, type Palette, type ThemeName } from './theme.ts';
-import { fitWidth, uPlot } from './uplot-kit.ts';
+import { fitCharts, uPlot } from './uplot-kit.ts';
 
 /**
  * A component that shows one uPlot chart in its `.plot` element: the chart is made once
@@ -12,7 +13,6 @@ export abstract class SingleChartElement extends LitElement {
   @property() theme: ThemeName = 'light';
 
   protected chart: uPlot | undefined;
-  private sizer: ResizeObserver | undefined;
 
   /** Chart height, px. */
   protected abstract readonly chartHeight: number;
@@ -24,20 +24,20 @@ export abstract class SingleChartElement extends LitElement {
   /** uPlot options for a chart `width` px wide in the current theme. */
   protected abstract options(width: number, palette: () => Palette): uPlot.Options;
 
+  constructor() {
+    super();
+    new ResizeController(this, () => this.renderRoot.querySelector('.plot'), (rect) => fitCharts([this.chart], rect.width, this.chartHeight));
+    new TeardownController(this, () => this.destroyChart());
+  }
+
   protected updated(changed: PropertyValues<this>): void {
-    if (changed.has('theme') && this.chart) {
-      this.chart.destroy();
-      this.chart = undefined;
-    }
+    if (changed.has('theme')) this.destroyChart();
     if (!this.hasData()) return;
     if (!this.chart) this.create();
     else if (this.dataChanged(changed)) this.chart.setData(this.data());
   }
 
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.sizer?.disconnect();
-    this.sizer = undefined;
+  protected destroyChart(): void {
     this.chart?.destroy();
     this.chart = undefined;
   }
@@ -46,6 +46,5 @@ export abstract class SingleChartElement extends LitElement {
     const host = this.renderRoot.querySelector('.plot') as HTMLElement;
     const width = Math.floor(host.getBoundingClientRect().width);
     this.chart = new uPlot(this.options(width, () => palettes[this.theme]), this.data(), host);
-    this.sizer ??= fitWidth(host, () => [this.chart], this.chartHeight);
   }
 }

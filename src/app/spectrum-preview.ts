@@ -1,5 +1,6 @@
 import { css, html, type PropertyValues } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
+import { cAbs } from '../exact/complex.ts';
 import { waveformBand, waveformSpectrum } from '../scenario/waveforms.ts';
 import { formatSI } from '../scenario/units.ts';
 import type { Waveform } from '../scenario/types.ts';
@@ -59,7 +60,7 @@ export class GgSpectrumPreview extends SingleChartElement {
     let peak = 0;
     for (let k = 0; k < POINTS; k++) {
       f[k] = (top * k) / (POINTS - 1);
-      mag[k] = Math.hypot(...waveformSpectrum(w, 1, f[k]));
+      mag[k] = cAbs(waveformSpectrum(w, 1, f[k]));
       peak = Math.max(peak, mag[k]);
     }
     const db: (number | null)[] = Array.from(mag, (m) => (m > 0 ? Math.max(-80, 20 * Math.log10(m / peak)) : -80));

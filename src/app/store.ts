@@ -10,10 +10,12 @@
 import type { ErrorMap } from '../compare/error-map.ts';
 import type { RunResults } from '../compare/results.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
+import type { Warning } from '../scenario/warnings.ts';
 import type { ParseResult, Scenario } from '../scenario/types.ts';
 import type { DisplayUnits, Draft } from './draft.ts';
 import { frameStats, type FrameStats } from './frame-stats.ts';
 import type { FieldFrame } from './protocol.ts';
+import type { View } from './persist.ts';
 import type { ThemeName } from './theme.ts';
 
 export type RunPhase = 'idle' | 'running' | 'paused' | 'stopping' | 'done' | 'stopped' | 'failed';
@@ -31,6 +33,10 @@ export interface RunState {
   message?: string;
   /** Where the worker's time went, ms (for the benchmark). */
   timings?: { setup: number; stepping: number; results: number; errorMap: number };
+  /** Field energy left at the end of the last run over its peak, dB (for its warning). */
+  energyLeftDb?: number;
+  /** Why the last run ended early, if it did. */
+  stopped?: { step: number; reason: string };
 }
 
 /** A message shown above the work area until dismissed. */
@@ -40,17 +46,22 @@ export interface AppState {
   draft: Draft;
   check: ParseResult;
   derived: DerivedQuantities | undefined;
+  /** Valid but meaningless choices in the scenario (src/scenario/warnings.ts); empty while it is invalid. */
+  warnings: Warning[];
   units: DisplayUnits;
   theme: ThemeName;
+  /** The section of the page on show. */
+  view: View;
   run: RunState;
   /** Results of the last finished or stopped run, and the scenario that produced them. */
   results: RunResults | undefined;
   resultsScenario: Scenario | undefined;
-  errorMap: ErrorMap | undefined;
+  /** Error maps of the last run, one per mapped frequency. */
+  errorMaps: ErrorMap[];
   /** Index into the results' frequencies for the line charts. */
   lineFrequency: number;
-  /** Index into the scenario's frequencies for the next run's error map. */
-  mapFrequency: number;
+  /** The error map's chosen frequency, Hz: shown when mapped, mapped first by the next run (undefined: the first). */
+  mapFrequencyHz: number | undefined;
   /** Ez-node updates per second measured on the last run, for the run-time estimate. */
   measuredCellRate: number | undefined;
   notice: Notice | undefined;

@@ -10,7 +10,7 @@ import type { StudyPool } from '../studies/pool.ts';
 import type { StudyProgress } from '../studies/progress.ts';
 import { STUDIES } from '../studies/registry.ts';
 import { runStudy } from '../studies/run-study.ts';
-import { TaskController } from './controllers.ts';
+import { TaskController, TeardownController } from './controllers.ts';
 import { saveText } from './download.ts';
 import './study-chart.ts';
 import './study-form.ts';
@@ -69,10 +69,12 @@ export class GgStudiesPanel extends LitElement {
   private planned: AnyStudyDefinition | undefined;
   private pool: StudyPool | undefined;
 
-  disconnectedCallback(): void {
-    super.disconnectedCallback();
-    this.pool?.dispose();
-    this.pool = undefined;
+  constructor() {
+    super();
+    new TeardownController(this, () => {
+      this.pool?.dispose();
+      this.pool = undefined;
+    });
   }
 
   private values(): OptionValues {

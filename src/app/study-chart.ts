@@ -4,7 +4,8 @@ import type { ChartSeries, StudyChart } from '../studies/definition.ts';
 import { formatSig } from '../scenario/units.ts';
 import { SingleChartElement } from './single-chart.ts';
 import type { Palette, ThemeName } from './theme.ts';
-import { series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { logTickLabels } from './axis-ticks.ts';
+import { fullestIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
 const CHART_HEIGHT = 240;
 /** Colours for numbered curves, cycled (mid tones that read on both themes). */
@@ -17,14 +18,27 @@ function colourOf(s: ChartSeries, palette: () => Palette): () => string {
   return () => palette()[c];
 }
 
-/** An axis on a logarithmic scale, labelled only at 1, 2 and 5 × 10^k so the minor ticks stay quiet. */
+/**
+ * An axis on a logarithmic scale: the roundest ticks (1, 2, 5 × 10^k first) are labelled
+ * as long as their labels keep apart, so a scale spanning less than a decade still reads.
+ */
 function logAxis(palette: () => Palette, name: string, scaleKey: string): uPlot.Axis {
+  const horizontal = scaleKey === 'x';
   return {
     ...siAxis(palette, name, '', scaleKey),
-    values: (_u: uPlot, splits: number[]) => splits.map((v) => {
-      const mantissa = v / 10 ** Math.floor(Math.log10(v) + 1e-9);
-      return [1, 2, 5].some((k) => Math.abs(mantissa - k) < 1e-6) ? formatSig(v, 3) : '';
-    }),
+    // uPlot's own log filter blanks all but 1 × 10^k while the plot is still being sized;
+    // every split reaches `values`, which picks the labels.
+    filter: (_u: uPlot, splits: number[]) => splits,
+    values: (u: uPlot, splits: number[]) => {
+      // Pixel positions from the scale and the chart's size: the plot box is not settled
+      // yet while uPlot sizes its axes, so it cannot be asked.
+      const { min, max } = u.scales[scaleKey];
+      const lo = Math.log10(min ?? splits[0]);
+      const span = Math.log10(max ?? splits[splits.length - 1]) - lo || 1;
+      const length = horizontal ? u.width - 90 : u.height - 70;
+      const show = logTickLabels(splits, splits.map((v) => ((Math.log10(v) - lo) / span) * length), horizontal ? 34 : 16);
+      return splits.map((v, k) => (show[k] ? formatSig(v, 3) : ''));
+    },
   };
 }
 
@@ -68,10 +82,7 @@ export class GgStudyChart extends SingleChartElement {
   protected updated(changed: PropertyValues<this>): void {
     // a different set of series needs a new chart, not new data
     const shape = this.spec ? this.spec.series.map((s) => s.label).join('|') : '';
-    if (shape !== this.shape && this.chart) {
-      this.chart.destroy();
-      this.chart = undefined;
-    }
+    if (shape !== this.shape) this.destroyChart();
     this.shape = shape;
     super.updated(changed);
   }
@@ -95,7 +106,7 @@ export class GgStudyChart extends SingleChartElement {
           return { ...series({ label: s.label, colour, ...(s.style === 'dashed' ? { dash: [6, 4], width: 1 } : {}) }), spanGaps: true };
         }),
       ],
-      legend: { show: true, live: true },
+      ...restingLegend(fullestIndex),
     };
   }
 

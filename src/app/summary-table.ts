@@ -12,10 +12,11 @@ import { controlStyles } from './theme.ts';
 @customElement('gg-summary-table')
 export class GgSummaryTable extends LitElement {
   static styles = [controlStyles, css`
-    :host { display: block; overflow-x: auto; }
-    table { border-collapse: collapse; width: 100%; font-size: 0.88rem; }
-    caption { text-align: left; font-size: 0.8rem; padding: 0 0 0.4rem; color: var(--gg-muted); caption-side: bottom; padding-top: 0.4rem; }
-    th, td { padding: 0.3rem 0.55rem; border-bottom: 1px solid var(--gg-grid); text-align: right; white-space: nowrap; }
+    :host { display: block; min-width: 0; }
+    .scroll { overflow-x: auto; }
+    table { border-collapse: collapse; width: 100%; font-size: 0.86rem; }
+    .caption { font-size: 0.8rem; margin: 0.4rem 0 0; color: var(--gg-muted); }
+    th, td { padding: 0.3rem 0.4rem; border-bottom: 1px solid var(--gg-grid); text-align: right; white-space: nowrap; }
     th { font-weight: 600; color: var(--gg-muted); font-size: 0.8rem; vertical-align: bottom; }
     th:first-child, td.name { text-align: left; }
     td.name { font-weight: 600; }
@@ -31,8 +32,7 @@ export class GgSummaryTable extends LitElement {
     const freqs = r.frequencies;
     const span = Math.max(1, freqs.length);
     return html`
-      <table>
-        <caption>Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</caption>
+      <div class="scroll"><table aria-describedby="summary-caption">
         <thead>
           <tr>
             <th scope="col">Probe</th><th scope="col">x</th><th scope="col">y</th><th scope="col">ρ</th><th scope="col">relErrMax</th>
@@ -64,7 +64,8 @@ export class GgSummaryTable extends LitElement {
             });
           })}
         </tbody>
-      </table>
+      </table></div>
+      <p class="caption" id="summary-caption">Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</p>
     `;
   }
 }

@@ -5,7 +5,7 @@ import { formatSI, formatSig } from '../scenario/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
 import { controlStyles, palettes, type Palette } from './theme.ts';
 import { SingleChartElement } from './single-chart.ts';
-import { chartsPng, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
+import { chartsPng, peakIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
 const HEIGHT = 220;
 
@@ -23,6 +23,7 @@ export class GgTimeseriesChart extends SingleChartElement {
     .plot { min-height: ${HEIGHT}px; }
     .uplot { font-family: var(--gg-font); }
     .u-legend { font-size: 0.8rem; color: var(--gg-ink); }
+    .note { font-size: 0.75rem; margin: 0; }
   `];
 
   @property({ attribute: false }) probe: ProbeResult | undefined;
@@ -40,6 +41,7 @@ export class GgTimeseriesChart extends SingleChartElement {
         <button class="small" @click=${this.savePng} ?disabled=${!p} aria-label="Save the time series of probe ${p?.name ?? ''} as PNG">PNG</button>
       </div>
       <div class="plot" role="img" aria-label="Ez against time at probe ${p?.name ?? ''}: FDTD, exact and their difference"></div>
+      <p class="note muted">Legend: values under the pointer, or at the FDTD peak.</p>
     `;
   }
 
@@ -78,7 +80,7 @@ export class GgTimeseriesChart extends SingleChartElement {
         series({ label: 'exact', colour: () => palette().exact, dash: [6, 4], width: 1.5 }),
         series({ label: 'FDTD − exact', colour: () => palette().difference, width: 1 }),
       ],
-      legend: { show: true },
+      ...restingLegend((u) => peakIndex(u, 1)),
       cursor: { drag: { x: true, y: false } },
     };
   }

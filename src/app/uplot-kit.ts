@@ -70,15 +70,57 @@ export function series(style: SeriesStyle): uPlot.Series {
   return out;
 }
 
-/** Sets every chart in `charts()` to the width of `host`'s content box. */
-export function fitWidth(host: HTMLElement, charts: () => (uPlot | undefined)[], height: number): ResizeObserver {
-  const observer = new ResizeObserver((entries) => {
-    const width = Math.floor(entries[0].contentRect.width);
-    if (width <= 0) return;
-    for (const c of charts()) if (c && c.width !== width) c.setSize({ width, height });
-  });
-  observer.observe(host);
-  return observer;
+/** Sets every chart to `width` px (the width of its container), keeping `height`. */
+export function fitCharts(charts: (uPlot | undefined)[], width: number, height: number): void {
+  const w = Math.floor(width);
+  if (w <= 0) return;
+  for (const c of charts) if (c && c.width !== w) c.setSize({ width: w, height });
+}
+
+/**
+ * Legend options that always show every series with a value: at the pointer while it is
+ * over the plot, otherwise at the sample `resting` picks (the peak, the end of a line), so
+ * the figures read without hovering.
+ */
+export function restingLegend(resting: (u: uPlot) => number | null): { legend: uPlot.Legend; hooks: uPlot.Hooks.Arrays } {
+  const settle = (u: uPlot) => {
+    if (u.cursor.left !== undefined && u.cursor.left >= 0) return; // the pointer is on the plot
+    const k = resting(u);
+    if (k !== null && k !== u.legend.idx) u.setLegend({ idx: k }, false);
+  };
+  return { legend: { show: true, live: true }, hooks: { setLegend: [settle], ready: [settle], setData: [settle] } };
+}
+
+/** The last index at which the most series have a value (a study chart's curves differ in x), or null. */
+export function fullestIndex(u: uPlot): number | null {
+  let best: number | null = null;
+  let most = 0;
+  const n = u.data[0]?.length ?? 0;
+  for (let k = 0; k < n; k++) {
+    let count = 0;
+    for (let s = 1; s < u.data.length; s++) if (u.data[s][k] !== null && u.data[s][k] !== undefined) count++;
+    if (count > 0 && count >= most) { most = count; best = k; }
+  }
+  return best;
+}
+
+/** The index of the largest |value| of series `s`, or null when it has none. */
+export function peakIndex(u: uPlot, s: number): number | null {
+  const ys = u.data[s] as ArrayLike<number | null | undefined> | undefined;
+  let best: number | null = null;
+  let top = -Infinity;
+  for (let k = 0; ys && k < ys.length; k++) {
+    const v = ys[k];
+    if (v !== null && v !== undefined && Math.abs(v) > top) { top = Math.abs(v); best = k; }
+  }
+  return best;
+}
+
+/** The index of the last sample with a value in series `s`, or null. */
+export function lastIndex(u: uPlot, s: number): number | null {
+  const ys = u.data[s] as ArrayLike<number | null | undefined> | undefined;
+  for (let k = (ys?.length ?? 0) - 1; k >= 0; k--) if (ys?.[k] !== null && ys?.[k] !== undefined) return k;
+  return null;
 }
 
 /** A PNG of the charts' canvases (plot, axes and labels) under a title. */

@@ -2,11 +2,10 @@ import { collectResults, type RunResults } from '../compare/results.ts';
 import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
 import { Simulation } from '../engine/simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
-import { runFiles } from '../io/outputs.ts';
+import { runExtras, runFiles } from '../io/outputs.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
-import { energyLeftWarning, scenarioWarnings, type Warning } from '../scenario/warnings.ts';
-import { scenarioHash } from '../scenario/hash.ts';
+import { scenarioWarnings, type Warning } from '../scenario/warnings.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
@@ -110,14 +109,12 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   if (blowUp) process.stderr.write(`gridgauge: run stopped: ${blowUp.reason}; what was recorded up to step ${blowUp.step} is kept\n`);
   const runSeconds = secondsSince(t0);
   const results = collectResults(sim);
-  const energyLeft = energyLeftWarning(outcome.energyLeftDb, scenario.steps);
-  const warnings = [...scenarioWarnings(scenario), ...(energyLeft ? [energyLeft] : [])];
-  const files = runFiles(results, {
-    run_seconds: runSeconds, nx: sim.layout.nx, ny: sim.layout.ny, frequencies_Hz: results.frequencies,
-    ...(blowUp ? { stopped: blowUp } : interrupted ? { stopped: { step: sim.stepsDone, reason: 'interrupted' } } : {}),
-    warnings,
-    scenario_hash: scenarioHash(scenario),
+  const extras = runExtras(scenario, results, {
+    runSeconds, energyLeftDb: outcome.energyLeftDb,
+    stopped: blowUp ?? (interrupted ? { step: sim.stepsDone, reason: 'interrupted' } : undefined),
   });
+  const warnings = extras.warnings as Warning[];
+  const files = runFiles(results, extras);
   if (outDir) await writeFiles(outDir, files);
   if (json) {
     process.stdout.write(files['summary.json']);

@@ -1,4 +1,7 @@
 import type { RunResults, SpectrumPoint } from '../compare/results.ts';
+import { scenarioHash } from '../scenario/hash.ts';
+import type { Scenario } from '../scenario/types.ts';
+import { energyLeftWarning, scenarioWarnings } from '../scenario/warnings.ts';
 import { jsonForOutput, toCsv } from './csv.ts';
 
 /** The four files of a run, by file name, as text (docs/outputs.md "Files of a run"). */
@@ -54,6 +57,30 @@ export function summaryObject(r: RunResults, extra: Record<string, unknown> = {}
     stepsPlanned: r.stepsPlanned,
     complete: r.steps === r.stepsPlanned,
     ...extra,
+  };
+}
+
+/** How a run went, for the keys summary.json carries after the contract's. */
+export interface RunFacts {
+  runSeconds: number;
+  /** Why the run ended early (a blow-up, or "interrupted"), if it did. */
+  stopped?: { step: number; reason: string };
+  /** Field energy left at the end over its peak, dB (NaN if unknown). */
+  energyLeftDb: number;
+}
+
+/**
+ * The keys summary.json carries after the contract's, the same from the command line and
+ * the page: run time, grid size, frequencies, how it stopped, the warnings (those of the
+ * scenario and the energy left at the end) and the scenario's fingerprint.
+ */
+export function runExtras(scenario: Scenario, r: RunResults, facts: RunFacts): Record<string, unknown> {
+  const energyLeft = energyLeftWarning(facts.energyLeftDb, scenario.steps);
+  return {
+    run_seconds: facts.runSeconds, nx: scenario.grid.nx, ny: scenario.grid.ny, frequencies_Hz: r.frequencies,
+    ...(facts.stopped ? { stopped: facts.stopped } : {}),
+    warnings: [...scenarioWarnings(scenario), ...(energyLeft ? [energyLeft] : [])],
+    scenario_hash: scenarioHash(scenario),
   };
 }
 

@@ -7,6 +7,7 @@
  */
 import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
 import { waveformBand } from './waveforms.ts';
+import { errorMapsThatFit, fullGridDftBytes } from './readouts.ts';
 import { layoutOf, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { Scenario } from './types.ts';
 
@@ -46,6 +47,12 @@ export interface DerivedQuantities {
   interiorNy: number;
   /** Simulated time, steps·dt, s. */
   duration_s: number;
+  /** One full-grid running DFT (the page's error map at one frequency), 8·nx·ny, bytes. */
+  fullGridDft_bytes: number;
+  /** How many of the first analysis frequencies can have an error map beside the run under the cap. */
+  errorMapsFitting: number;
+  /** Ez-node updates of the whole run, nx·ny·steps (the basis of a run-time estimate). */
+  nodeUpdates: number;
 }
 
 /** Engine memory for a scenario, bytes: fields, absorber, probe series and running DFTs. */
@@ -76,6 +83,7 @@ export function deriveQuantities(s: Scenario): DerivedQuantities {
   const f0 = s.source.waveform.kind === 'gaussian' ? band.peakHz : s.source.waveform.f0;
   const coarser = Math.max(dx, dy);
   const wavelengthAt = (f: number) => (f > 0 ? c / f : NaN);
+  const memory = scenarioMemoryBytes(s);
   return {
     dt_s: dt,
     c_m_per_s: c,
@@ -90,10 +98,13 @@ export function deriveQuantities(s: Scenario): DerivedQuantities {
     cellsPerWavelengthAtF0: wavelengthAt(f0) / coarser,
     cellsPerWavelengthAtBandEdge: wavelengthAt(band.edgeHz) / coarser,
     nyquist_Hz: 1 / (2 * dt),
-    memory_bytes: scenarioMemoryBytes(s),
+    memory_bytes: memory,
     memoryCap_bytes: MEMORY_CAP_BYTES,
     interiorNx: nx - 2 * s.absorber.cells,
     interiorNy: ny - 2 * s.absorber.cells,
     duration_s: s.steps * dt,
+    fullGridDft_bytes: fullGridDftBytes(nx, ny),
+    errorMapsFitting: errorMapsThatFit(memory, nx, ny, s.frequencies.length),
+    nodeUpdates: nx * ny * s.steps,
   };
 }

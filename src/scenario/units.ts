@@ -30,22 +30,22 @@ export function formatSig(value: number, digits = 3): string {
 }
 
 /**
- * Bytes in binary units with `digits` significant figures, the unit chosen so the number
- * stays below 1000 ("998 KiB", then "0.98 MiB" rather than "1.02e+3 KiB"); `trim` drops
- * trailing zeros ("2 GiB" rather than "2.00 GiB"). The one byte formatter of the project.
+ * Bytes in binary units (IEC 80000-13) with `digits` significant figures, in the unit that
+ * keeps the figure below 1000: 1536 → "1.50 KiB", 1046528 → "0.998 MiB" (not "1.02e+3 KiB");
+ * `trim` drops trailing zeros ("2 GiB" rather than "2.00 GiB"). Whole bytes below 1000
+ * print as they are; NaN prints "—". The one byte formatter of the project.
  *
  * @example
- * formatBytes(1536); // "1.50 KiB"
  * formatBytes(1046528); // "0.998 MiB"
  */
 export function formatBytes(bytes: number, digits = 3, trim = false): string {
-  if (!Number.isFinite(bytes)) return formatSig(bytes);
-  const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB'];
-  let v = bytes;
+  if (Number.isNaN(bytes)) return '—';
+  if (!Number.isFinite(bytes)) return `${bytes < 0 ? '−' : ''}∞ B`;
+  const units = ['B', 'KiB', 'MiB', 'GiB', 'TiB', 'PiB'];
+  let v = Math.abs(bytes);
   let u = 0;
-  // decide on the rounded figure, so 999.999 KiB becomes 0.977 MiB rather than "1.00e+3 KiB"
-  while (Math.abs(Number(v.toPrecision(digits))) >= 1000 && u < units.length - 1) { v /= 1024; u++; }
-  if (u === 0) return `${v} B`;
-  const text = v.toPrecision(digits);
-  return `${trim ? String(Number(text)) : text} ${units[u]}`;
+  // step up while the figure, once rounded to what is shown, would need four digits
+  while (u < units.length - 1 && (u === 0 ? Math.round(v) : Number(v.toPrecision(digits))) >= 1000) { v /= 1024; u++; }
+  const text = u === 0 ? String(Math.round(v)) : v.toPrecision(digits);
+  return `${bytes < 0 ? '−' : ''}${trim ? String(Number(text)) : text} ${units[u]}`;
 }

@@ -51,6 +51,7 @@ beforeAll(async () => {
   await page.goto(h.url);
   await waitForRunEnd(page);
   await waitForCompareDrawn(page);
+  await page.getByRole('tab', { name: 'Results' }).click(); // the comparison is in the Results section
 });
 
 afterAll(async () => {

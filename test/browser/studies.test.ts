@@ -12,6 +12,8 @@ beforeAll(async () => { h = await startHarness(); });
 afterAll(async () => { await h?.close(); });
 
 const panel = (page: Page) => page.locator('gg-studies-panel');
+/** The studies are in their own section of the page. */
+const openStudies = (page: Page) => page.getByRole('tab', { name: 'Studies' }).click();
 const button = (page: Page, name: string) => panel(page).getByRole('button', { name });
 const draftCells = (page: Page) => page.evaluate(() =>
   (document.querySelector('gg-app') as unknown as { store: { state: { draft: { absorber: { cells: number } } } } }).store.state.draft.absorber.cells);
@@ -20,6 +22,7 @@ describe('studies panel', () => {
   it('runs the absorber study, shows every candidate and a recommendation, and applies it', async () => {
     const { page, errors } = await h.newPage();
     await page.goto(`${h.url}?autorun=0`);
+    await openStudies(page);
     await button(page, 'Run study').click();
     // the demo study has dozens of candidates; wait for the verdict
     await panel(page).locator('.verdict').waitFor({ timeout: 120_000 });
@@ -36,6 +39,7 @@ describe('studies panel', () => {
   it('cancels a running study and keeps the candidates already finished', async () => {
     const { page, errors } = await h.newPage();
     await page.goto(`${h.url}?autorun=0`);
+    await openStudies(page);
     await button(page, 'Run study').click();
     await expect.poll(() => panel(page).locator('table tbody tr td.num + td.num').count(), { timeout: 60_000 }).toBeGreaterThan(0);
     await button(page, 'Cancel').click();
@@ -51,6 +55,7 @@ describe('studies panel', () => {
   it('runs the resolution study for 12 wavelengths and 5°, and applying it refines the cells', async () => {
     const { page, errors } = await h.newPage();
     await page.goto(`${h.url}?autorun=0`);
+    await openStudies(page);
     await button(page, 'Resolution').click();
     await panel(page).getByLabel('Project size (wavelengths)').fill('12');
     await panel(page).getByLabel('Phase budget (degrees)').fill('5');
@@ -63,6 +68,13 @@ describe('studies panel', () => {
     expect(picked).toBeLessThanOrEqual(40);
     const dx = () => page.evaluate(() =>
       (document.querySelector('gg-app') as unknown as { store: { state: { check: { ok: boolean; scenario?: { grid: { dx: number } } } } } }).store.state.check.scenario?.grid.dx ?? NaN);
+    // the log axes label more than one tick each (1-2-5 and more where they fit)
+    const labelled = await panel(page).locator('gg-study-chart').evaluateAll((charts) => charts.flatMap((c) => {
+      const u = (c as unknown as { chart?: { axes: { _values?: string[] }[] } }).chart;
+      return u ? u.axes.map((a) => (a._values ?? []).filter((v) => v !== '').length) : [];
+    }));
+    expect(labelled.length).toBeGreaterThan(0); // common practice, no source
+    for (const n of labelled) expect(n).toBeGreaterThanOrEqual(3); // common practice, no source
     const before = await dx();
     await button(page, 'Apply recommendation').click();
     await expect.poll(dx).toBeLessThan(before);

@@ -37,4 +37,22 @@ describe('SI formatting', () => {
     expect(formatBytes(999)).toBe('999 B');
     expect(formatBytes(2 * 1024 ** 3, 4, true)).toBe('2 GiB');
   });
+
+  it('keeps three significant digits below 1000 in the unit it picks', () => {
+    // IEC 80000-13 binary prefixes; 1046528 = 1022 KiB = 0.998 MiB (common practice, no source)
+    expect(formatBytes(1046528)).toBe('0.998 MiB');
+    expect(formatBytes(1024 ** 2)).toBe('1.00 MiB'); // common practice, no source
+    expect(formatBytes(999)).toBe('999 B'); // common practice, no source
+    expect(formatBytes(1000)).toBe('0.977 KiB'); // 1000/1024, common practice, no source
+    expect(formatBytes(999.4 * 1024)).toBe('999 KiB'); // common practice, no source
+    expect(formatBytes(999.6 * 1024)).toBe('0.976 MiB'); // would round to 1000 KiB, common practice, no source
+    expect(formatBytes(0)).toBe('0 B'); // common practice, no source
+    expect(formatBytes(-2048)).toBe('−2.00 KiB'); // common practice, no source
+    expect(formatBytes(NaN)).toBe('—'); // common practice, no source
+    expect(formatBytes(Infinity)).toBe('∞ B'); // common practice, no source
+    for (let e = 0; e < 50; e++) {
+      const text = formatBytes(2 ** e * 1.37);
+      expect(text, text).not.toMatch(/e\+|\d{4}/); // never an exponent or four digits, common practice, no source
+    }
+  });
 });
