@@ -161,9 +161,14 @@ interface Scale { min: number; max: number; log: boolean; ticks: number[] }
  */
 function scaleOf(axis: PlotAxis, values: number[], pad: boolean): Scale {
   const log = !!axis.log;
-  const usable = values.filter((v) => Number.isFinite(v) && (!log || v > 0));
-  let lo = usable.length ? Math.min(...usable) : NaN;
-  let hi = usable.length ? Math.max(...usable) : NaN;
+  // a loop, not Math.min(...values): a long run has more samples than a call takes arguments
+  let lo = NaN;
+  let hi = NaN;
+  for (const v of values) {
+    if (!Number.isFinite(v) || (log && !(v > 0))) continue;
+    if (!(v >= lo)) lo = v;
+    if (!(v <= hi)) hi = v;
+  }
   if (log) {
     if (!(lo > 0)) { lo = 1; hi = 10; }
     const room = pad ? 1.08 : 1;
@@ -252,6 +257,13 @@ function pathData(points: [number, number][]): string {
 
 const textWidth = (text: string, size = FONT) => text.length * size * CHAR;
 
+/** Text cut with an ellipsis to fit `width` (a long name in a title or legend; the caption carries it whole). */
+function fit(text: string, width: number, size = FONT): string {
+  const chars = Array.from(text);
+  const room = Math.max(4, Math.floor(width / (size * CHAR)));
+  return chars.length <= room ? text : `${chars.slice(0, room - 1).join('')}…`;
+}
+
 interface LegendEntry { label: string; colour: string; style: 'line' | 'points' | 'dashed'; markers?: boolean }
 
 /** Legend rows under the plot: each entry a swatch and its label, wrapped to the width. */
@@ -261,6 +273,7 @@ function legendRows(entries: LegendEntry[], width: number): { entry: LegendEntry
   let row = 0;
   for (const entry of entries) {
     const w = 30 + textWidth(entry.label) + 14;
+    if (w > width) entry.label = fit(entry.label, width - 44);
     if (x > 0 && x + w > width) { x = 0; row++; }
     placed.push({ entry, x, row });
     x += w;
@@ -321,6 +334,7 @@ export function svgPlot(spec: PlotSpec): string {
     ...limits.map((l) => ({ label: l.label, colour: LIMIT_COLOUR, style: 'dashed' as const })),
   ];
   const legend = legendRows(entries, right - left);
+  const title = fit(spec.title, W - 40, FONT + 2);
   const rows = legend.length ? Math.max(...legend.map((l) => l.row)) + 1 : 0;
   const H = plotH + rows * 16 + (rows ? 6 : 0);
   const px = (v: number) => project(xs, v, left, right);
@@ -331,7 +345,7 @@ export function svgPlot(spec: PlotSpec): string {
   out.push(`<svg${ns} viewBox="0 0 ${W} ${H}" width="${W}" height="${H}" role="img" aria-label="${escapeXml(spec.title)}" font-family="Helvetica, Arial, sans-serif" font-size="${FONT}">`);
   out.push(`<title>${escapeXml(spec.title)}</title>`);
   out.push(`<defs><clipPath id="${id}-clip"><rect x="${num(left)}" y="${num(top)}" width="${num(right - left)}" height="${num(bottom - top)}"/></clipPath></defs>`);
-  if (spec.title) out.push(`<text x="${num(W / 2)}" y="18" text-anchor="middle" font-size="${FONT + 2}" font-weight="bold">${escapeXml(spec.title)}</text>`);
+  if (spec.title) out.push(`<text x="${num(W / 2)}" y="18" text-anchor="middle" font-size="${FONT + 2}" font-weight="bold">${escapeXml(title)}</text>`);
 
   const grid: string[] = [];
   const tickText: string[] = [];
@@ -348,8 +362,8 @@ export function svgPlot(spec: PlotSpec): string {
   out.push(`<path d="${grid.join('')}" stroke="#dddddd" stroke-width="1" fill="none"/>`);
   out.push(`<rect x="${num(left)}" y="${num(top)}" width="${num(right - left)}" height="${num(bottom - top)}" fill="none" stroke="#333333" stroke-width="1"/>`);
   out.push(...tickText);
-  out.push(`<text x="${num((left + right) / 2)}" y="${num(bottom + 32)}" text-anchor="middle">${escapeXml(xl.title)}</text>`);
-  out.push(`<text transform="translate(13 ${num((top + bottom) / 2)}) rotate(-90)" text-anchor="middle">${escapeXml(yl.title)}</text>`);
+  out.push(`<text x="${num((left + right) / 2)}" y="${num(bottom + 32)}" text-anchor="middle">${escapeXml(fit(xl.title, right - left))}</text>`);
+  out.push(`<text transform="translate(13 ${num((top + bottom) / 2)}) rotate(-90)" text-anchor="middle">${escapeXml(fit(yl.title, bottom - top))}</text>`);
 
   out.push(`<g clip-path="url(#${id}-clip)">`);
   let drawn = 0;
