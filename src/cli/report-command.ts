@@ -34,7 +34,10 @@ const isNamedStudy = (file: string) => studyKind({ file, folder: '', data: null 
 /**
  * Every study file in the given folders, in the order given, files by name within a folder.
  * Throws InvalidInput for a folder that is missing, is not a folder, or holds no study file,
- * and for a study's own file (absorber.json, …) that is not valid JSON.
+ * and for a study's own file (absorber.json, …) that is not valid JSON or not a study.
+ *
+ * @example
+ * await readStudyFolders(['out/absorber', 'out/resolution']); // [{ file: 'absorber.json', … }, { file: 'resolution.json', … }]
  */
 export async function readStudyFolders(folders: readonly string[]): Promise<ReportStudy[]> {
   const studies: ReportStudy[] = [];
@@ -66,8 +69,15 @@ export async function readStudyFolders(folders: readonly string[]): Promise<Repo
   return studies;
 }
 
-/** The error map's frequency, or why there is none. */
-function mapPlan(s: Scenario): { frequency?: number; note?: string } {
+/**
+ * The error map's frequency (the first analysis frequency), or why there is none: no
+ * analysis frequency, or the full-grid DFT (8 bytes per node) would take the run above the
+ * memory cap.
+ *
+ * @example
+ * errorMapPlan(demoScenario()); // { frequency: 5e9 }
+ */
+export function errorMapPlan(s: Scenario): { frequency?: number; note?: string } {
   const f = s.frequencies[0];
   if (f === undefined) return { note: 'the scenario has no analysis frequency to map' };
   const bytes = scenarioMemoryBytes(s, true);
@@ -88,13 +98,18 @@ async function reportPath(args: ParsedArgs): Promise<string> {
 /** The date and time as the report prints it: "2025-06-01 14:03 UTC". */
 const reportDate = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 
-/** Runs `gridgauge report`; returns the exit code (0, 1 blow-up, 130 interrupted; invalid input throws). */
+/**
+ * Runs `gridgauge report`; returns the exit code (0, 1 blow-up, 130 interrupted; invalid input throws).
+ *
+ * @example
+ * await commandReport(parseArgs(['examples/demo.json', '--with', 'out/absorber'], ['out', 'with'], []));
+ */
 export async function commandReport(args: ParsedArgs): Promise<number> {
   const file = args.positional[0];
   const scenario = await loadScenarioFile(file);
   const studies = await readStudyFolders(listOption(args, 'with'));
   const target = await reportPath(args);
-  const map = mapPlan(scenario);
+  const map = errorMapPlan(scenario);
   if (map.note) note(`gridgauge: no error map: ${map.note}`);
 
   const t0 = performance.now();

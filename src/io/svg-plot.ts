@@ -162,8 +162,7 @@ interface Scale { min: number; max: number; log: boolean; ticks: number[] }
 function scaleOf(axis: PlotAxis, values: number[], pad: boolean): Scale {
   const log = !!axis.log;
   // a loop, not Math.min(...values): a long run has more samples than a call takes arguments
-  let lo = NaN;
-  let hi = NaN;
+  let [lo, hi] = [NaN, NaN];
   for (const v of values) {
     if (!Number.isFinite(v) || (log && !(v > 0))) continue;
     if (!(v >= lo)) lo = v;
@@ -205,10 +204,8 @@ function labelsOf(axis: PlotAxis, s: Scale): { ticks: string[]; title: string } 
   return { ticks: s.ticks.map(text), title: axis.unit ? `${axis.label} (${prefix}${axis.unit})` : axis.label };
 }
 
-const num = (x: number) => {
-  const r = Math.round(x * 10) / 10;
-  return (Object.is(r, -0) ? 0 : r).toFixed(1).replace(/\.0$/, '');
-};
+/** A coordinate to 0.1 unit, without "-0" or a trailing ".0". */
+const num = (x: number) => (Math.round(x * 10) / 10 || 0).toFixed(1).replace(/\.0$/, '');
 
 /** Pixel position on an axis; NaN for values the axis cannot show. */
 function project(s: Scale, v: number, from: number, to: number): number {
@@ -227,11 +224,10 @@ function thin(points: [number, number][], columns: number): [number, number][] {
   let group: [number, number][] = [];
   const flush = () => {
     if (group.length === 0) return;
-    let lo = group[0];
-    let hi = group[0];
-    for (const p of group) { if (p[1] < lo[1]) lo = p; if (p[1] > hi[1]) hi = p; }
+    const lo = group.reduce((a, p) => (p[1] < a[1] ? p : a));
+    const hi = group.reduce((a, p) => (p[1] > a[1] ? p : a));
     const keep = new Set([group[0], lo, hi, group[group.length - 1]]);
-    for (const p of group) if (keep.has(p)) out.push(p);
+    out.push(...group.filter((p) => keep.has(p)));
     group = [];
   };
   for (const p of points) {
@@ -272,8 +268,8 @@ function legendRows(entries: LegendEntry[], width: number): { entry: LegendEntry
   let x = 0;
   let row = 0;
   for (const entry of entries) {
+    entry.label = fit(entry.label, width - 44);
     const w = 30 + textWidth(entry.label) + 14;
-    if (w > width) entry.label = fit(entry.label, width - 44);
     if (x > 0 && x + w > width) { x = 0; row++; }
     placed.push({ entry, x, row });
     x += w;
@@ -304,19 +300,13 @@ export function svgPlot(spec: PlotSpec): string {
   const id = String(spec.id ?? 'plot').replace(/[^A-Za-z0-9_-]/g, '_');
   const limits = (spec.limits ?? []).filter((l) => Number.isFinite(l.value));
   const collect = (axis: 'x' | 'y') => {
-    const values: number[] = [];
+    const values = limits.filter((l) => l.axis === axis).map((l) => l.value);
     for (const s of spec.series) {
-      const xs = s.x;
-      const ys = s.y;
-      const n = Math.min(xs.length, ys.length);
-      for (let k = 0; k < n; k++) {
-        const x = xs[k];
-        const y = ys[k];
-        if (y === null || !Number.isFinite(x) || !Number.isFinite(y)) continue;
-        values.push(axis === 'x' ? x : y);
+      for (let k = 0; k < Math.min(s.x.length, s.y.length); k++) {
+        const y = s.y[k];
+        if (y !== null && Number.isFinite(s.x[k]) && Number.isFinite(y)) values.push(axis === 'x' ? s.x[k] : y);
       }
     }
-    for (const l of limits) if (l.axis === axis) values.push(l.value);
     return values;
   };
   const marked = spec.series.some((s) => s.style === 'points' || s.markers);
@@ -369,12 +359,7 @@ export function svgPlot(spec: PlotSpec): string {
   let drawn = 0;
   spec.series.forEach((s, k) => {
     const colour = colourOf(s.colour, k);
-    const n = Math.min(s.x.length, s.y.length);
-    const points: [number, number][] = [];
-    for (let i = 0; i < n; i++) {
-      const y = s.y[i];
-      points.push([px(s.x[i]), y === null ? NaN : py(y)]);
-    }
+    const points = Array.from({ length: Math.min(s.x.length, s.y.length) }, (_, i): [number, number] => [px(s.x[i]), py(s.y[i] ?? NaN)]);
     const marks = points.filter(([x, y]) => !Number.isNaN(x) && !Number.isNaN(y));
     const markGroup = (r: number) => `<g fill="${colour}">${marks.map(([x, y]) => `<circle cx="${num(x)}" cy="${num(y)}" r="${r}"/>`).join('')}</g>`;
     if (s.style === 'points') {

@@ -11,6 +11,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { listOption, parseArgs, UsageError } from '../../src/cli/args.ts';
+import { errorMapPlan } from '../../src/cli/report-command.ts';
+import { scenarioMemoryBytes } from '../../src/scenario/derived.ts';
+import { demoScenario } from '../../src/scenario/defaults.ts';
+import { MEMORY_CAP_BYTES } from '../../src/scenario/memory.ts';
 
 const gridgauge = (...args: string[]) => {
   const r = spawnSync(process.execPath, ['bin/gridgauge.js', ...args], { encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
@@ -71,6 +75,19 @@ describe('gridgauge report', () => {
     const html = readFileSync(out, 'utf8');
     expect(html).toContain('>Study: staircase</h2>');
     expect(html).not.toContain('Study: study<');
+  });
+});
+
+describe('error map plan', () => {
+  it('maps the first analysis frequency, unless there is none or the full-grid DFT would pass the memory cap', () => {
+    expect(errorMapPlan(demoScenario())).toEqual({ frequency: 5e9 });
+    expect(errorMapPlan({ ...demoScenario(), frequencies: [] }).note).toBe('the scenario has no analysis frequency to map');
+    // 12 000² nodes: fields fit under the 2 GiB cap (12 bytes a node), fields and map do not (20 bytes a node)
+    const big = { ...demoScenario(), grid: { ...demoScenario().grid, nx: 12_000, ny: 12_000 }, probes: [], lines: [] };
+    expect(scenarioMemoryBytes(big)).toBeLessThan(MEMORY_CAP_BYTES);
+    const plan = errorMapPlan(big);
+    expect(plan.frequency).toBeUndefined();
+    expect(plan.note).toMatch(/above the 2 GiB memory cap/);
   });
 });
 

@@ -23,7 +23,13 @@ const ANCHORS: readonly [number, number, number][] = [
   [18, 20, 58], [36, 62, 140], [30, 122, 160], [52, 168, 128], [170, 200, 70], [250, 236, 150],
 ];
 
-/** The colour at u in [0, 1] of the dark-to-bright scale. */
+/**
+ * The colour at u in [0, 1] of the dark-to-bright scale, RGB 0–255, linear between anchors;
+ * u outside [0, 1] is clamped, NaN taken as 0.
+ *
+ * @example
+ * scaleColour(0); // [18, 20, 58]
+ */
 export function scaleColour(u: number): [number, number, number] {
   const t = Math.min(1, Math.max(0, Number.isFinite(u) ? u : 0)) * (ANCHORS.length - 1);
   const k = Math.min(ANCHORS.length - 2, Math.floor(t));
@@ -64,7 +70,14 @@ export function shrinkWorst(map: ErrorMap, maxSide = MAP_MAX_PIXELS): ShrunkMap 
   return { width, height, factor, db };
 }
 
-/** The colour range: 2nd to 98th percentile of the interior's values, widened to 5 dB steps (as the page's "fit to the interior"). */
+/**
+ * The colour range, dB: 2nd to 98th percentile of the values `inset` pixels in from every
+ * edge (the absorber left out), widened to 5 dB steps, as the page's "fit to the interior";
+ * −80 to 0 dB when there are fewer than two values.
+ *
+ * @example
+ * fittedRange(shrinkWorst(map), 5); // e.g. [-60, -45]
+ */
 export function fittedRange(m: ShrunkMap, inset: number): [number, number] {
   const values: number[] = [];
   for (let j = inset; j < m.height - inset; j++) {
@@ -90,8 +103,12 @@ function palette(): Uint8Array {
 }
 
 /**
- * The shrunk map as PNG bytes, top row first (y grows upward on the page), the absorber's
- * inner edge (`inset` pixels in from each side; 0 for none) in white.
+ * The shrunk map as PNG bytes, top row first (y grows upward on the page), values in dB
+ * placed on the scale over `range`, the absorber's inner edge (`inset` pixels in from each
+ * side; 0 for none) in white, pixels without a value grey.
+ *
+ * @example
+ * mapPng(shrinkWorst(map), [-60, 0], 5); // Uint8Array starting 0x89 'PNG'
  */
 export function mapPng(m: ShrunkMap, range: [number, number], inset: number): Uint8Array {
   const [lo, hi] = range;
@@ -129,7 +146,10 @@ function colourBar(range: [number, number]): string {
 
 /**
  * The error-map figure: image, colour bar and a caption saying how it was made; or the note
- * saying why there is none.
+ * saying why there is none. dx, dy in m; absorberCells in cells.
+ *
+ * @example
+ * errorMapFigure(errorMapOf(sim), undefined, 1e-3, 1e-3, 10);
  */
 export function errorMapFigure(map: ErrorMap | undefined, note: string | undefined, dx: number, dy: number, absorberCells: number): Html {
   if (!map) return html`<p class="note">No error map: ${note ?? 'the run had no full-grid DFT'}.</p>`;

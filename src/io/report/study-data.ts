@@ -61,14 +61,24 @@ export function studyKind(s: ReportStudy): StudyKind {
   return 'other';
 }
 
-/** The study's title in the report. */
+/**
+ * The study's title in the report: "Absorber study", or "Study: NAME" for one without a section.
+ *
+ * @example
+ * studyTitle({ file: 'staircase.json', folder: '.', data: {} }); // 'Study: staircase'
+ */
 export function studyTitle(s: ReportStudy): string {
   const kind = studyKind(s);
   if (kind !== 'other') return `${kind[0].toUpperCase()}${kind.slice(1)} study`;
   return `Study: ${s.file.replace(/^.*[\\/]/, '').replace(/\.json$/i, '')}`;
 }
 
-/** A scalar value of a file as text: numbers to 4 figures, booleans as yes/no, null as "—". */
+/**
+ * A scalar value of a file as text: numbers to 4 figures, booleans as yes/no, null as "—".
+ *
+ * @example
+ * valueText(0.123456); // '0.1235'
+ */
 export function valueText(v: unknown): string {
   if (typeof v === 'number') return sig(v, 4);
   if (typeof v === 'string') return v;
@@ -77,7 +87,12 @@ export function valueText(v: unknown): string {
   return Array.isArray(v) ? `${v.length} values` : 'an object';
 }
 
-/** The scalar fields of an object, nested objects one level down as "outer.inner". */
+/**
+ * The scalar fields of an object, nested objects one level down as "outer.inner"; lists left out.
+ *
+ * @example
+ * scalarFields({ cells: 8, project: { nx: 65 }, values: [1] }); // [['cells', 8], ['project.nx', 65]]
+ */
 export function scalarFields(o: Obj | null): [string, unknown][] {
   if (!o) return [];
   const out: [string, unknown][] = [];
@@ -143,7 +158,12 @@ export function studyVerdict(s: ReportStudy): string {
   }
 }
 
-/** Whether candidate `c` is the recommended entry: every scalar field the two share is equal. */
+/**
+ * Whether candidate `c` is the recommended entry: every number or text field the two share is equal.
+ *
+ * @example
+ * isRecommended({ level: 2, dx_m: 2.5e-4, seconds: 20 }, { level: 2, dx_m: 2.5e-4, gci_mag_dB: 0.01 }); // true
+ */
 export function isRecommended(c: unknown, recommended: Obj | null): boolean {
   if (!recommended || !isObject(c)) return false;
   const shared = Object.entries(recommended).filter(([k, v]) => k in c && (typeof v === 'number' || typeof v === 'string'));
