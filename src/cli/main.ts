@@ -10,6 +10,7 @@ import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
 import { ProgressBar } from './progress.ts';
+import { commandReport } from './report-command.ts';
 import { cliOptions, COMMON_STUDY_OPTIONS, studyCommand } from './study-commands.ts';
 import type { AnyStudyDefinition } from '../studies/definition.ts';
 import { STUDIES } from '../studies/registry.ts';
@@ -32,6 +33,11 @@ ${studyUsage()}
   "gridgauge run FILE --out DIR/<name without .json>", then score them all with
   --from DIR instead of running them here. --workers sets the pool size (default: one per
   hardware thread).
+  gridgauge report FILE [--out report.html] [--with DIR]...
+      Run the scenario and write a design-review report: one self-contained HTML file
+      (scenario, derived quantities, warnings, FDTD-vs-exact summary, plots, error map,
+      conventions) that prints on A4 or Letter. Each --with DIR (repeatable) adds the
+      studies whose files are in DIR (absorber.json, resolution.json, convergence.json).
   gridgauge bench [--json]
       Measure engine speed (Mcells/s) against a plain TypeScript kernel.
 
@@ -178,6 +184,7 @@ const COMMANDS: Record<string, Command> = {
   run: { valued: ['out'], flags: ['json'], run: commandRun },
   check: { valued: [], flags: ['json'], run: commandCheck },
   ...Object.fromEntries(STUDIES.map((d) => [d.verb, studyVerb(d)])),
+  report: { valued: ['out', 'with'], flags: [], run: commandReport },
   bench: { valued: [], flags: ['json'], run: commandBench, files: 0 },
 };
 
