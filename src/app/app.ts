@@ -22,6 +22,7 @@ import type { RunCommand } from './run-controls.ts';
 import { sectionNav, viewStyles } from './section-nav.ts';
 import './setup-form.ts';
 import { Store, type AppState } from './store.ts';
+import './report-panel.ts';
 import './studies-panel.ts';
 import { controlStyles, themeTokens } from './theme.ts';
 
@@ -89,7 +90,7 @@ export class GgApp extends LitElement {
       warnings: check.ok ? scenarioWarnings(check.scenario) : [],
       units: savedUnits(), theme: savedTheme(), view: linkView(),
       run: { phase: 'idle', runId: 0, stepsDone: 0, stepsTotal: 0, stepsPerSecond: 0 },
-      results: undefined, resultsScenario: undefined, errorMaps: [],
+      results: undefined, resultsScenario: undefined, errorMaps: [], studyFiles: {},
       lineFrequency: 0, mapFrequencyHz: undefined, measuredCellRate: undefined,
       notice: initial.linkProblems ? {
         kind: 'error', title: 'The scenario in this link could not be used; showing your last scenario instead',
@@ -280,11 +281,13 @@ export class GgApp extends LitElement {
         </div>
         <section class="view card" id="view-studies" role="tabpanel" aria-labelledby="tab-studies" ?hidden=${s.view !== 'studies'}>
           <div class="card-head"><h2 id="studies-heading">Studies</h2></div>
-          <gg-studies-panel .scenario=${s.check.ok ? s.check.scenario : undefined} theme=${s.theme}></gg-studies-panel>
+          <gg-studies-panel .scenario=${s.check.ok ? s.check.scenario : undefined} theme=${s.theme}
+            @gg-study-done=${(e: CustomEvent<{ file: string; data: unknown }>) => this.store.set({ studyFiles: { ...this.store.state.studyFiles, [e.detail.file]: e.detail.data } })}></gg-studies-panel>
         </section>
         <section class="view card report" id="view-report" role="tabpanel" aria-labelledby="tab-report" ?hidden=${s.view !== 'report'}>
           <div class="card-head"><h2 id="report-heading">Report</h2></div>
-          <p>A report export is coming: one document with the set-up, the comparison figures and the studies’ recommendations, ready to attach to a project file.</p>
+          <gg-report-panel .scenario=${s.resultsScenario} .results=${s.results} .run=${s.run} .studies=${s.studyFiles}
+            .errorMap=${s.errorMaps.find((m) => m.f_Hz === s.mapFrequencyHz) ?? s.errorMaps[0]}></gg-report-panel>
         </section>
       </main>
       <footer>Results check the numerical method only; they are not evidence for RF-exposure or EMC compliance.</footer>

@@ -58,6 +58,8 @@ export interface AppState {
   resultsScenario: Scenario | undefined;
   /** Error maps of the last run, one per mapped frequency. */
   errorMaps: ErrorMap[];
+  /** The JSON of each study finished in this session, by file name, for the report. */
+  studyFiles: Record<string, unknown>;
   /** Index into the results' frequencies for the line charts. */
   lineFrequency: number;
   /** The error map's chosen frequency, Hz: shown when mapped, mapped first by the next run (undefined: the first). */

@@ -99,7 +99,12 @@ export class GgStudiesPanel extends LitElement {
         onCandidate: (c) => { this.rows = [...this.rows, c].sort((a, b) => d.compare(a, b)); },
       });
     });
-    if (this.task.value) this.rows = [...this.study.rows(this.task.value)];
+    if (this.task.value) {
+      this.rows = [...this.study.rows(this.task.value)];
+      // the study's JSON file, for the page's report
+      const json = d.outputs(this.task.value).find((o) => o.kind === 'json');
+      if (json) this.dispatchEvent(new CustomEvent('gg-study-done', { detail: { file: json.name, data: d.json(this.task.value) }, bubbles: true, composed: true }));
+    }
   }
 
   /** The recommendation so far (final once the study is over). */
