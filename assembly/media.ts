@@ -14,14 +14,17 @@
 // electric component, its pole terms −cq·q. The electric component(s) carry the medium:
 // a in TMz, b and c in TEz; the magnetic ones have ca = 1 and no poles.
 //
-// Pole states are stored scaled so that every state is in the units of the field
-// (volts per metre): Drude Ĵ = J·dt/ε0, Lorentz and Debye P̂ = P/ε0. Per node, with e = E^n:
-//   q = Σ over the poles in their order of
-//       Drude    Ĵ ← k1·Ĵ + k2·e,            q += Ĵ
-//       Lorentz  P̂n = k1·P̂ + k2·P̂m + k3·e, q += P̂n − P̂,  P̂m ← P̂, P̂ ← P̂n
-//       Debye                                q −= k3·P̂
-//   E^{n+1} = (curl part) − cq·q
-//   then each Debye pole  P̂ ← k1·P̂ + k2·(E^{n+1} + e).
+// Pole states are stored scaled so that their updates need the fewest operations: Drude
+// Ĵ = J·dt/ε0 and Lorentz P̂ = P/ε0 (volts per metre), Debye Ŝ = P/(ε0·κ') with κ' the
+// weight of (E^{n+1} + E^n) in the Debye update. Per node, with e = E^n and v the curl part
+// of E^{n+1} (CPML terms included), for each pole in its order:
+//   Drude    Ĵ ← k1·Ĵ + k2·e,                 v ← v − cq·Ĵ
+//   Lorentz  P̂n = (k1·P̂ + k2·P̂m) + k3·e,     v ← v − cq·(P̂n − P̂),  P̂m ← P̂, P̂ ← P̂n
+//   Debye                                     v ← v − (cq·k3)·Ŝ      (k3 = (β − 1)·κ')
+// then E^{n+1} = v, and each Debye pole Ŝ ← k1·Ŝ + (E^{n+1} + e) (k1 = β). cq·k3 is the
+// float32 product of the two. A background with one pole runs a copy of the loops made for
+// that pole's kind, with its constants in registers; with several, a loop over the pole
+// table. Both do the above.
 //
 // Memory is claimed once in `allocate` and never grows afterwards, so the views JavaScript
 // holds stay valid for the life of the instance.
@@ -82,6 +85,11 @@ let rowVectors: i32 = 0;
 const DRUDE = 1;
 const LORENTZ = 2;
 const DEBYE = 3;
+// How the row loops treat the background's poles: none, one of a kind (DRUDE, LORENTZ,
+// DEBYE), or any number through the pole table (MANY).
+const NONE = 0;
+const MANY = 4;
+let bgMode: i32 = NONE;
 let bgPoleCount: i32 = 0;
 let bgSlots: i32 = 0; // state values per node: one per Drude or Debye pole, two per Lorentz pole
 let bgDebye = false;
@@ -127,7 +135,7 @@ let rowStartA: usize = 0; let rowStartB: usize = 0; let rowStartC: usize = 0;
 // f32 per patch: a's old value (a) or the new value (b, c) between the row's passes.
 let scratchA: usize = 0; let scratchB: usize = 0; let scratchC: usize = 0;
 let patchPool: usize = 0; // patch pole states, f32
-let sourceCorrections: usize = 0; // per Debye state at the source point: byte address (i32), k2 (f32)
+let sourceCorrections: usize = 0; // i32 byte address of each Debye state at the source point
 
 let source: usize = 0; // f64 per step: I or M at (n+½)dt
 let probeCount: i32 = 0;
@@ -211,7 +219,7 @@ export function allocate(
   scratchB = claim(<usize>patchB << 2);
   scratchC = claim(<usize>patchC << 2);
   patchPool = claim(<usize>poolSlots << 2);
-  sourceCorrections = claim(<usize>corrections << 3);
+  sourceCorrections = claim(<usize>corrections << 2);
   source = claim(<usize>steps << 3);
   probeIndex = claim(<usize>probes << 2);
   series = claim((<usize>probes * <usize>seriesLength) << 2);
@@ -253,6 +261,7 @@ export function setCoefficients(
   for (let p = 0; p < bgPoleCount; p++) {
     if (load<i32>(poleTable + (<usize>p << 6)) == DEBYE) bgDebye = true;
   }
+  bgMode = bgPoleCount == 0 ? NONE : bgPoleCount == 1 ? load<i32>(poleTable) : MANY;
   sourceScale = sourceScaleIn; sourceIndex = sourceNode;
   sourceRow = nx > 0 ? sourceNode / nx : 0;
   fullOmegaDt = fullOmegaDtIn;
@@ -353,81 +362,101 @@ function prepareStripCoefficients(): void {
 
 // ---- poles ----------------------------------------------------------------------------------
 
-// q of the background poles at one vector of nodes whose old field is `e` and whose states
-// start at `ps`; advances the Drude and Lorentz states (see the header).
-@inline function poleTermsV(e: v128, ps: usize): v128 {
-  let q = f32x4.splat(0);
+// The background poles' terms applied to v (see the header) at one vector of nodes whose
+// old field is `e` and whose states start at `ps`; advances the Drude and Lorentz states.
+@inline function polesManyV(v: v128, e: v128, ps: usize, cq: v128): v128 {
   let rec = poleTable;
   for (let p = 0; p < bgPoleCount; p++) {
     const kind = load<i32>(rec);
     if (kind == DRUDE) {
       const j = f32x4.add(f32x4.mul(v128.load(rec, 16), v128.load(ps)), f32x4.mul(v128.load(rec, 32), e));
       v128.store(ps, j);
-      q = f32x4.add(q, j);
+      v = f32x4.sub(v, f32x4.mul(cq, j));
       ps += 16;
     } else if (kind == LORENTZ) {
       const pNow = v128.load(ps);
       const pNew = f32x4.add(
         f32x4.add(f32x4.mul(v128.load(rec, 16), pNow), f32x4.mul(v128.load(rec, 32), v128.load(ps, 16))),
         f32x4.mul(v128.load(rec, 48), e));
-      q = f32x4.add(q, f32x4.sub(pNew, pNow));
       v128.store(ps, pNew);
       v128.store(ps, pNow, 16);
+      v = f32x4.sub(v, f32x4.mul(cq, f32x4.sub(pNew, pNow)));
       ps += 32;
     } else {
-      q = f32x4.sub(q, f32x4.mul(v128.load(rec, 48), v128.load(ps)));
+      v = f32x4.sub(v, f32x4.mul(f32x4.mul(cq, v128.load(rec, 48)), v128.load(ps)));
       ps += 16;
     }
     rec += 64;
   }
-  return q;
+  return v;
 }
 
 // Debye states of the background poles from the new field `v` and the old `e`.
-@inline function debyeUpdateV(v: v128, e: v128, ps: usize): void {
+@inline function debyeManyV(v: v128, e: v128, ps: usize): void {
   const sum = f32x4.add(v, e);
   let rec = poleTable;
   for (let p = 0; p < bgPoleCount; p++) {
     const kind = load<i32>(rec);
-    if (kind == DEBYE) {
-      v128.store(ps, f32x4.add(f32x4.mul(v128.load(rec, 16), v128.load(ps)), f32x4.mul(v128.load(rec, 32), sum)));
-    }
+    if (kind == DEBYE) v128.store(ps, f32x4.add(f32x4.mul(v128.load(rec, 16), v128.load(ps)), sum));
     ps += kind == LORENTZ ? 32 : 16;
     rec += 64;
   }
 }
 
+// The same for a background of one pole of kind `mode` (its constants k1..k3 and cq·k3
+// splatted), or of any number (MANY).
+@inline function polesV(mode: i32, v: v128, e: v128, ps: usize, cq: v128, cqk: v128, k1: v128, k2: v128, k3: v128): v128 {
+  if (mode == DRUDE) {
+    const j = f32x4.add(f32x4.mul(k1, v128.load(ps)), f32x4.mul(k2, e));
+    v128.store(ps, j);
+    return f32x4.sub(v, f32x4.mul(cq, j));
+  }
+  if (mode == LORENTZ) {
+    const pNow = v128.load(ps);
+    const pNew = f32x4.add(f32x4.add(f32x4.mul(k1, pNow), f32x4.mul(k2, v128.load(ps, 16))), f32x4.mul(k3, e));
+    v128.store(ps, pNew);
+    v128.store(ps, pNow, 16);
+    return f32x4.sub(v, f32x4.mul(cq, f32x4.sub(pNew, pNow)));
+  }
+  if (mode == DEBYE) return f32x4.sub(v, f32x4.mul(cqk, v128.load(ps)));
+  return polesManyV(v, e, ps, cq);
+}
+
+@inline function debyeV(mode: i32, v: v128, e: v128, ps: usize, k1: v128): void {
+  if (mode == DEBYE) v128.store(ps, f32x4.add(f32x4.mul(k1, v128.load(ps)), f32x4.add(v, e)));
+  else if (mode == MANY && bgDebye) debyeManyV(v, e, ps);
+}
+
 // The scalar form of both, for `count` poles from record `rec`, states `stride` bytes apart.
-@inline function poleTermsS(e: f32, ps: usize, stride: usize, rec: usize, count: i32): f32 {
-  let q: f32 = 0;
+@inline function polesS(v: f32, e: f32, ps: usize, stride: usize, rec: usize, count: i32, cq: f32): f32 {
   for (let p = 0; p < count; p++) {
     const kind = load<i32>(rec);
     if (kind == DRUDE) {
       const j = load<f32>(rec, 16) * load<f32>(ps) + load<f32>(rec, 32) * e;
       store<f32>(ps, j);
-      q = q + j;
+      v = v - cq * j;
       ps += stride;
     } else if (kind == LORENTZ) {
       const pNow = load<f32>(ps);
       const pNew = (load<f32>(rec, 16) * pNow + load<f32>(rec, 32) * load<f32>(ps + stride)) + load<f32>(rec, 48) * e;
-      q = q + (pNew - pNow);
       store<f32>(ps, pNew);
       store<f32>(ps + stride, pNow);
+      v = v - cq * (pNew - pNow);
       ps += stride << 1;
     } else {
-      q = q - load<f32>(rec, 48) * load<f32>(ps);
+      v = v - (cq * load<f32>(rec, 48)) * load<f32>(ps);
       ps += stride;
     }
     rec += 64;
   }
-  return q;
+  return v;
 }
 
-@inline function debyeUpdateS(v: f32, e: f32, ps: usize, stride: usize, rec: usize, count: i32): void {
+@inline function debyeS(v: f32, e: f32, ps: usize, stride: usize, rec: usize, count: i32): void {
   const sum = v + e;
   for (let p = 0; p < count; p++) {
     const kind = load<i32>(rec);
-    if (kind == DEBYE) store<f32>(ps, load<f32>(rec, 16) * load<f32>(ps) + load<f32>(rec, 32) * sum);
+    if (kind == DEBYE) store<f32>(ps, load<f32>(rec, 16) * load<f32>(ps) + sum);
     ps += kind == LORENTZ ? stride << 1 : stride;
     rec += 64;
   }
@@ -442,8 +471,8 @@ function prepareStripCoefficients(): void {
 // ---- b, c and a over a range of columns (two passes) ----------------------------------------
 
 // b of row j over columns [i0, i1) (i0 a multiple of 4), with the y-strip term when asked.
-// `electric`: TEz (ca and poles apply); `poles`: the background has poles.
-@inline function bSeg(j: i32, i0: i32, i1: i32, yStrip: bool, electric: bool, poles: bool): void {
+// `electric`: TEz (ca and poles apply); `mode`: how the background's poles run (NONE in TMz).
+@inline function bSeg(j: i32, i0: i32, i1: i32, yStrip: bool, electric: bool, mode: i32): void {
   const k0 = j * nx;
   const r = yStrip ? psiYRow(j) : 0;
   const yb = yStrip ? f32At(bHy, j) : 0;
@@ -460,6 +489,10 @@ function prepareStripCoefficients(): void {
     const ca = v128.load(coefficientVectors, V_CAB);
     const cb = v128.load(coefficientVectors, V_CBB);
     const cq = v128.load(coefficientVectors, V_CQB);
+    const k1 = v128.load(poleTable, 16);
+    const k2 = v128.load(poleTable, 32);
+    const k3 = v128.load(poleTable, 48);
+    const cqk = f32x4.mul(cq, k3);
     const bv = f32x4.splat(yb);
     const av = f32x4.splat(ya);
     const gv = f32x4.splat(yg);
@@ -472,9 +505,9 @@ function prepareStripCoefficients(): void {
         v128.store(pPsi, p);
         v = f32x4.sub(v, f32x4.mul(cb, f32x4.add(f32x4.mul(gv, d), p)));
       }
-      if (poles) v = f32x4.sub(v, f32x4.mul(cq, poleTermsV(old, pS)));
+      if (mode != NONE) v = polesV(mode, v, old, pS, cq, cqk, k1, k2, k3);
       v128.store(pB, v);
-      if (poles && bgDebye) debyeUpdateV(v, old, pS);
+      if (mode != NONE) debyeV(mode, v, old, pS, k1);
       pA += 16; pB += 16; pPsi += 32; pS += sStep;
     }
   }
@@ -490,14 +523,14 @@ function prepareStripCoefficients(): void {
       v = v - cbB * (yg * d + p);
     }
     const ps = statesB + stateOffset(j, i);
-    if (poles) v = v - cqB * poleTermsS(old, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE) v = polesS(v, old, ps, 16, poleTable, bgPoleCount, cqB);
     f32Set(b, k, v);
-    if (poles && bgDebye) debyeUpdateS(v, old, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE && bgDebye) debyeS(v, old, ps, 16, poleTable, bgPoleCount);
   }
 }
 
 // c of row j over columns [i0, i1) (i0 a multiple of 4 and strip column c0 when `xStrip`).
-@inline function cSeg(j: i32, i0: i32, i1: i32, c0: i32, xStrip: bool, electric: bool, poles: bool): void {
+@inline function cSeg(j: i32, i0: i32, i1: i32, c0: i32, xStrip: bool, electric: bool, mode: i32): void {
   const k0 = j * nx;
   let i = i0;
   if (ASC_FEATURE_SIMD) {
@@ -510,6 +543,10 @@ function prepareStripCoefficients(): void {
     const ca = v128.load(coefficientVectors, V_CAC);
     const cb = v128.load(coefficientVectors, V_CBC);
     const cq = v128.load(coefficientVectors, V_CQC);
+    const k1 = v128.load(poleTable, 16);
+    const k2 = v128.load(poleTable, 32);
+    const k3 = v128.load(poleTable, 48);
+    const cqk = f32x4.mul(cq, k3);
     for (; i + 4 <= i1; i += 4) {
       const old = v128.load(pC);
       const d = f32x4.sub(v128.load(pA, 4), v128.load(pA));
@@ -519,9 +556,9 @@ function prepareStripCoefficients(): void {
         v128.store(pPsi, p);
         v = f32x4.add(v, f32x4.mul(cb, f32x4.add(f32x4.mul(v128.load(pCoef, 32), d), p)));
       }
-      if (poles) v = f32x4.sub(v, f32x4.mul(cq, poleTermsV(old, pS)));
+      if (mode != NONE) v = polesV(mode, v, old, pS, cq, cqk, k1, k2, k3);
       v128.store(pC, v);
-      if (poles && bgDebye) debyeUpdateV(v, old, pS);
+      if (mode != NONE) debyeV(mode, v, old, pS, k1);
       pA += 16; pC += 16; pCoef += 96; pPsi += 32; pS += sStep;
     }
   }
@@ -537,16 +574,16 @@ function prepareStripCoefficients(): void {
       v = v + cbC * (f32At(gHx, i) * d + p);
     }
     const ps = statesC + stateOffset(j, i);
-    if (poles) v = v - cqC * poleTermsS(old, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE) v = polesS(v, old, ps, 16, poleTable, bgPoleCount, cqC);
     f32Set(c, k, v);
-    if (poles && bgDebye) debyeUpdateS(v, old, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE && bgDebye) debyeS(v, old, ps, 16, poleTable, bgPoleCount);
   }
 }
 
 // a of row j over columns [i0, i1), with the x-strip (from strip column c0) and y-strip
 // (ψ row r) terms when asked. `electric`: TMz (ca and poles apply).
 @inline function aSeg(
-  j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool, electric: bool, poles: bool,
+  j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool, electric: bool, mode: i32,
 ): void {
   const k0 = j * nx;
   const yb = yStrip ? f32At(bEy, j) : 0;
@@ -567,6 +604,10 @@ function prepareStripCoefficients(): void {
     const cbx = v128.load(coefficientVectors, V_CBXA);
     const cby = v128.load(coefficientVectors, V_CBYA);
     const cq = v128.load(coefficientVectors, V_CQA);
+    const k1 = v128.load(poleTable, 16);
+    const k2 = v128.load(poleTable, 32);
+    const k3 = v128.load(poleTable, 48);
+    const cqk = f32x4.mul(cq, k3);
     const bv = f32x4.splat(yb);
     const av = f32x4.splat(ya);
     const gv = f32x4.splat(yg);
@@ -587,9 +628,9 @@ function prepareStripCoefficients(): void {
         v128.store(pPsiY, p, 16);
         v = f32x4.sub(v, f32x4.mul(cby, f32x4.add(f32x4.mul(gv, dB), p)));
       }
-      if (poles) v = f32x4.sub(v, f32x4.mul(cq, poleTermsV(e, pS)));
+      if (mode != NONE) v = polesV(mode, v, e, pS, cq, cqk, k1, k2, k3);
       v128.store(pA, v);
-      if (poles && bgDebye) debyeUpdateV(v, e, pS);
+      if (mode != NONE) debyeV(mode, v, e, pS, k1);
       pA += 16; pB += 16; pC += 16; pCoef += 96; pPsiX += 32; pPsiY += 32; pS += sStep;
     }
   }
@@ -612,59 +653,68 @@ function prepareStripCoefficients(): void {
       v = v - cbyA * (yg * dB + p);
     }
     const ps = statesA + stateOffset(j, i);
-    if (poles) v = v - cqA * poleTermsS(e, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE) v = polesS(v, e, ps, 16, poleTable, bgPoleCount, cqA);
     f32Set(a, k, v);
-    if (poles && bgDebye) debyeUpdateS(v, e, ps, 16, poleTable, bgPoleCount);
+    if (mode != NONE && bgDebye) debyeS(v, e, ps, 16, poleTable, bgPoleCount);
   }
 }
 
-// Dispatchers: each inlined copy of the segments above has constant flags.
+// Dispatchers: each inlined copy of the segments above has constant flags and mode.
+@inline function bRangeAs(j: i32, i0: i32, i1: i32, yStrip: bool, mode: i32): void {
+  if (yStrip) bSeg(j, i0, i1, true, true, mode); else bSeg(j, i0, i1, false, true, mode);
+}
+
 function bRange(j: i32, i0: i32, i1: i32, yStrip: bool): void {
-  if (te) {
-    if (bgPoleCount > 0) {
-      if (yStrip) bSeg(j, i0, i1, true, true, true); else bSeg(j, i0, i1, false, true, true);
-    } else {
-      if (yStrip) bSeg(j, i0, i1, true, true, false); else bSeg(j, i0, i1, false, true, false);
-    }
-  } else {
-    if (yStrip) bSeg(j, i0, i1, true, false, false); else bSeg(j, i0, i1, false, false, false);
+  if (!te) {
+    if (yStrip) bSeg(j, i0, i1, true, false, NONE); else bSeg(j, i0, i1, false, false, NONE);
+    return;
   }
+  switch (bgMode) {
+    case NONE: bRangeAs(j, i0, i1, yStrip, NONE); break;
+    case DRUDE: bRangeAs(j, i0, i1, yStrip, DRUDE); break;
+    case LORENTZ: bRangeAs(j, i0, i1, yStrip, LORENTZ); break;
+    case DEBYE: bRangeAs(j, i0, i1, yStrip, DEBYE); break;
+    default: bRangeAs(j, i0, i1, yStrip, MANY);
+  }
+}
+
+@inline function cRangeAs(j: i32, i0: i32, i1: i32, c0: i32, xStrip: bool, mode: i32): void {
+  if (xStrip) cSeg(j, i0, i1, c0, true, true, mode); else cSeg(j, i0, i1, c0, false, true, mode);
 }
 
 function cRange(j: i32, i0: i32, i1: i32, c0: i32, xStrip: bool): void {
-  if (te) {
-    if (bgPoleCount > 0) {
-      if (xStrip) cSeg(j, i0, i1, c0, true, true, true); else cSeg(j, i0, i1, c0, false, true, true);
-    } else {
-      if (xStrip) cSeg(j, i0, i1, c0, true, true, false); else cSeg(j, i0, i1, c0, false, true, false);
-    }
-  } else {
-    if (xStrip) cSeg(j, i0, i1, c0, true, false, false); else cSeg(j, i0, i1, c0, false, false, false);
+  if (!te) {
+    if (xStrip) cSeg(j, i0, i1, c0, true, false, NONE); else cSeg(j, i0, i1, c0, false, false, NONE);
+    return;
+  }
+  switch (bgMode) {
+    case NONE: cRangeAs(j, i0, i1, c0, xStrip, NONE); break;
+    case DRUDE: cRangeAs(j, i0, i1, c0, xStrip, DRUDE); break;
+    case LORENTZ: cRangeAs(j, i0, i1, c0, xStrip, LORENTZ); break;
+    case DEBYE: cRangeAs(j, i0, i1, c0, xStrip, DEBYE); break;
+    default: cRangeAs(j, i0, i1, c0, xStrip, MANY);
   }
 }
 
-function aRangeTM(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void {
-  if (bgPoleCount > 0) {
-    if (xStrip) {
-      if (yStrip) aSeg(j, i0, i1, c0, r, true, true, true, true); else aSeg(j, i0, i1, c0, r, true, false, true, true);
-    } else {
-      if (yStrip) aSeg(j, i0, i1, c0, r, false, true, true, true); else aSeg(j, i0, i1, c0, r, false, false, true, true);
-    }
+@inline function aRangeAs(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool, electric: bool, mode: i32): void {
+  if (xStrip) {
+    if (yStrip) aSeg(j, i0, i1, c0, r, true, true, electric, mode); else aSeg(j, i0, i1, c0, r, true, false, electric, mode);
   } else {
-    if (xStrip) {
-      if (yStrip) aSeg(j, i0, i1, c0, r, true, true, true, false); else aSeg(j, i0, i1, c0, r, true, false, true, false);
-    } else {
-      if (yStrip) aSeg(j, i0, i1, c0, r, false, true, true, false); else aSeg(j, i0, i1, c0, r, false, false, true, false);
-    }
+    if (yStrip) aSeg(j, i0, i1, c0, r, false, true, electric, mode); else aSeg(j, i0, i1, c0, r, false, false, electric, mode);
   }
 }
 
 function aRange(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void {
-  if (!te) { aRangeTM(j, i0, i1, c0, r, xStrip, yStrip); return; }
-  if (xStrip) {
-    if (yStrip) aSeg(j, i0, i1, c0, r, true, true, false, false); else aSeg(j, i0, i1, c0, r, true, false, false, false);
-  } else {
-    if (yStrip) aSeg(j, i0, i1, c0, r, false, true, false, false); else aSeg(j, i0, i1, c0, r, false, false, false, false);
+  if (te) {
+    aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, false, NONE);
+    return;
+  }
+  switch (bgMode) {
+    case NONE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, NONE); break;
+    case DRUDE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DRUDE); break;
+    case LORENTZ: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, LORENTZ); break;
+    case DEBYE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DEBYE); break;
+    default: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, MANY);
   }
 }
 
@@ -693,9 +743,10 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
 @inline function fusedVector(
   d: usize, aHere: v128, aNext: v128, cLeft: v128,
   pA: usize, pAUp: usize, pB: usize, pBDown: usize, pC: usize, pSA: usize, pSB: usize, pSC: usize,
-  tez: bool, poles: bool,
+  cab: v128, cbb: v128, cqb: v128, cqkb: v128, cac: v128, cbc: v128, cqc: v128, cqkc: v128,
+  caa: v128, cbx: v128, cby: v128, cqa: v128, cqka: v128, k1: v128, k2: v128, k3: v128,
+  tez: bool, mode: i32,
 ): v128 {
-  const cv = coefficientVectors;
   // b of row j−1 is read before b of row j is written (see assembly/engine.ts fusedVector).
   const bDown = v128.load(pBDown + d);
   const dy = f32x4.sub(v128.load(pAUp + d), aHere);
@@ -705,37 +756,50 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
   let bNew: v128;
   let cNew: v128;
   if (tez) {
-    bNew = f32x4.sub(f32x4.mul(v128.load(cv, V_CAB), bOld), f32x4.mul(v128.load(cv, V_CBB), dy));
-    cNew = f32x4.add(f32x4.mul(v128.load(cv, V_CAC), cOld), f32x4.mul(v128.load(cv, V_CBC), dx));
-    if (poles) {
-      bNew = f32x4.sub(bNew, f32x4.mul(v128.load(cv, V_CQB), poleTermsV(bOld, pSB)));
-      cNew = f32x4.sub(cNew, f32x4.mul(v128.load(cv, V_CQC), poleTermsV(cOld, pSC)));
+    bNew = f32x4.sub(f32x4.mul(cab, bOld), f32x4.mul(cbb, dy));
+    cNew = f32x4.add(f32x4.mul(cac, cOld), f32x4.mul(cbc, dx));
+    if (mode != NONE) {
+      bNew = polesV(mode, bNew, bOld, pSB, cqb, cqkb, k1, k2, k3);
+      cNew = polesV(mode, cNew, cOld, pSC, cqc, cqkc, k1, k2, k3);
     }
   } else {
-    bNew = f32x4.sub(bOld, f32x4.mul(v128.load(cv, V_CBB), dy));
-    cNew = f32x4.add(cOld, f32x4.mul(v128.load(cv, V_CBC), dx));
+    bNew = f32x4.sub(bOld, f32x4.mul(cbb, dy));
+    cNew = f32x4.add(cOld, f32x4.mul(cbc, dx));
   }
   v128.store(pB + d, bNew);
   v128.store(pC + d, cNew);
-  if (tez && poles && bgDebye) {
-    debyeUpdateV(bNew, bOld, pSB);
-    debyeUpdateV(cNew, cOld, pSC);
+  if (tez && mode != NONE) {
+    debyeV(mode, bNew, bOld, pSB, k1);
+    debyeV(mode, cNew, cOld, pSC, k1);
   }
   const dC = f32x4.sub(cNew, f32x4.shuffle(cLeft, cNew, 3, 4, 5, 6));
   const dB = f32x4.sub(bNew, bDown);
-  let v = f32x4.sub(
-    f32x4.add(tez ? aHere : f32x4.mul(v128.load(cv, V_CAA), aHere), f32x4.mul(v128.load(cv, V_CBXA), dC)),
-    f32x4.mul(v128.load(cv, V_CBYA), dB));
-  if (!tez && poles) v = f32x4.sub(v, f32x4.mul(v128.load(cv, V_CQA), poleTermsV(aHere, pSA)));
+  let v = f32x4.sub(f32x4.add(tez ? aHere : f32x4.mul(caa, aHere), f32x4.mul(cbx, dC)), f32x4.mul(cby, dB));
+  if (!tez && mode == DEBYE) {
+    // The state is read once and kept for its own update.
+    const sNow = v128.load(pSA);
+    v = f32x4.sub(v, f32x4.mul(cqka, sNow));
+    v128.store(pA + d, v);
+    v128.store(pSA, f32x4.add(f32x4.mul(k1, sNow), f32x4.add(v, aHere)));
+    return cNew;
+  }
+  if (!tez && mode != NONE) v = polesV(mode, v, aHere, pSA, cqa, cqka, k1, k2, k3);
   v128.store(pA + d, v);
-  if (!tez && poles && bgDebye) debyeUpdateV(v, aHere, pSA);
+  if (!tez && mode != NONE) debyeV(mode, v, aHere, pSA, k1);
   return cNew;
 }
 
-@inline function fusedSeg(j: i32, i0: i32, i1: i32, tez: bool, poles: bool): void {
+@inline function fusedSeg(j: i32, i0: i32, i1: i32, tez: bool, mode: i32): void {
   const k0 = j * nx;
   let i = i0;
   if (ASC_FEATURE_SIMD) {
+    const cv = coefficientVectors;
+    const cab = v128.load(cv, V_CAB); const cbb = v128.load(cv, V_CBB); const cqb = v128.load(cv, V_CQB);
+    const cac = v128.load(cv, V_CAC); const cbc = v128.load(cv, V_CBC); const cqc = v128.load(cv, V_CQC);
+    const caa = v128.load(cv, V_CAA); const cbx = v128.load(cv, V_CBXA); const cby = v128.load(cv, V_CBYA);
+    const cqa = v128.load(cv, V_CQA);
+    const k1 = v128.load(poleTable, 16); const k2 = v128.load(poleTable, 32); const k3 = v128.load(poleTable, 48);
+    const cqka = f32x4.mul(cqa, k3); const cqkb = f32x4.mul(cqb, k3); const cqkc = f32x4.mul(cqc, k3);
     const row = <usize>nx << 2;
     const o = <usize>(k0 + i) << 2;
     let pA = a + o;
@@ -754,19 +818,23 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     const pEnd8 = pA + (<usize>((i1 - i) & ~7) << 2);
     const pEnd4 = pA + (<usize>whole << 2);
     i += whole;
-    // Two vectors per turn: the loop's own work is spread over 8 nodes.
-    while (pA < pEnd8) {
+    // Two vectors per turn without poles: the loop's own work is spread over 8 nodes. With
+    // poles one vector per turn keeps the constants in registers.
+    while (mode != MANY && pA < pEnd8) {
       const a1 = v128.load(pA, 16);
       const a2 = v128.load(pA, 32);
-      const c0 = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC, tez, poles);
-      cLeft = fusedVector(16, a1, a2, c0, pA, pAUp, pB, pBDown, pC, pSA + sStep, pSB + sStep, pSC + sStep, tez, poles);
+      const c1 = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+      cLeft = fusedVector(16, a1, a2, c1, pA, pAUp, pB, pBDown, pC, pSA + sStep, pSB + sStep, pSC + sStep,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
       a0 = a2;
       pA += 32; pAUp += 32; pB += 32; pBDown += 32; pC += 32;
       pSA += sStep << 1; pSB += sStep << 1; pSC += sStep << 1;
     }
     while (pA < pEnd4) {
       const a1 = v128.load(pA, 16);
-      cLeft = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC, tez, poles);
+      cLeft = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
       a0 = a1;
       pA += 16; pAUp += 16; pB += 16; pBDown += 16; pC += 16;
       pSA += sStep; pSB += sStep; pSC += sStep;
@@ -785,9 +853,9 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     if (tez) {
       bNew = caB * bOld - cbB * dy;
       cNew = caC * cOld + cbC * dx;
-      if (poles) {
-        bNew = bNew - cqB * poleTermsS(bOld, statesB + so, 16, poleTable, bgPoleCount);
-        cNew = cNew - cqC * poleTermsS(cOld, statesC + so, 16, poleTable, bgPoleCount);
+      if (mode != NONE) {
+        bNew = polesS(bNew, bOld, statesB + so, 16, poleTable, bgPoleCount, cqB);
+        cNew = polesS(cNew, cOld, statesC + so, 16, poleTable, bgPoleCount, cqC);
       }
     } else {
       bNew = bOld - cbB * dy;
@@ -795,24 +863,36 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     }
     f32Set(b, k, bNew);
     f32Set(c, k, cNew);
-    if (tez && poles && bgDebye) {
-      debyeUpdateS(bNew, bOld, statesB + so, 16, poleTable, bgPoleCount);
-      debyeUpdateS(cNew, cOld, statesC + so, 16, poleTable, bgPoleCount);
+    if (tez && mode != NONE && bgDebye) {
+      debyeS(bNew, bOld, statesB + so, 16, poleTable, bgPoleCount);
+      debyeS(cNew, cOld, statesC + so, 16, poleTable, bgPoleCount);
     }
     const dC = cNew - f32At(c, k - 1);
     const dB = bNew - f32At(b, k - nx);
     let v = ((tez ? e : caA * e) + cbxA * dC) - cbyA * dB;
-    if (!tez && poles) v = v - cqA * poleTermsS(e, statesA + so, 16, poleTable, bgPoleCount);
+    if (!tez && mode != NONE) v = polesS(v, e, statesA + so, 16, poleTable, bgPoleCount, cqA);
     f32Set(a, k, v);
-    if (!tez && poles && bgDebye) debyeUpdateS(v, e, statesA + so, 16, poleTable, bgPoleCount);
+    if (!tez && mode != NONE && bgDebye) debyeS(v, e, statesA + so, 16, poleTable, bgPoleCount);
   }
 }
 
 function fusedRange(j: i32, i0: i32, i1: i32): void {
   if (te) {
-    if (bgPoleCount > 0) fusedSeg(j, i0, i1, true, true); else fusedSeg(j, i0, i1, true, false);
+    switch (bgMode) {
+      case NONE: fusedSeg(j, i0, i1, true, NONE); break;
+      case DRUDE: fusedSeg(j, i0, i1, true, DRUDE); break;
+      case LORENTZ: fusedSeg(j, i0, i1, true, LORENTZ); break;
+      case DEBYE: fusedSeg(j, i0, i1, true, DEBYE); break;
+      default: fusedSeg(j, i0, i1, true, MANY);
+    }
   } else {
-    if (bgPoleCount > 0) fusedSeg(j, i0, i1, false, true); else fusedSeg(j, i0, i1, false, false);
+    switch (bgMode) {
+      case NONE: fusedSeg(j, i0, i1, false, NONE); break;
+      case DRUDE: fusedSeg(j, i0, i1, false, DRUDE); break;
+      case LORENTZ: fusedSeg(j, i0, i1, false, LORENTZ); break;
+      case DEBYE: fusedSeg(j, i0, i1, false, DEBYE); break;
+      default: fusedSeg(j, i0, i1, false, MANY);
+    }
   }
 }
 
@@ -844,8 +924,8 @@ function computeEdgePatches(j: i32): void {
         if (count > 0) {
           const poles = poleTable + (<usize>load<i32>(rec, 8) << 6);
           const ps = patchPool + (<usize>load<i32>(rec, 16) << 2);
-          v = v - load<f32>(rec, 44) * poleTermsS(old, ps, 4, poles, count);
-          debyeUpdateS(v, old, ps, 4, poles, count);
+          v = polesS(v, old, ps, 4, poles, count, load<f32>(rec, 44));
+          debyeS(v, old, ps, 4, poles, count);
         }
       } else if (kind == EDGE) {
         v = isB ? old - load<f32>(rec, 32) * d : old + load<f32>(rec, 32) * d;
@@ -897,8 +977,8 @@ function applyNodePatches(j: i32): void {
       if (count > 0) {
         const poles = poleTable + (<usize>load<i32>(rec, 8) << 6);
         const ps = patchPool + (<usize>load<i32>(rec, 16) << 2);
-        v = v - load<f32>(rec, 44) * poleTermsS(e, ps, 4, poles, count);
-        debyeUpdateS(v, e, ps, 4, poles, count);
+        v = polesS(v, e, ps, 4, poles, count, load<f32>(rec, 44));
+        debyeS(v, e, ps, 4, poles, count);
       }
     } else if (kind == CELL) {
       v = (e + (load<f32>(rec, 32) * f32At(c, k) - load<f32>(rec, 36) * f32At(c, k - 1)))
@@ -1021,13 +1101,12 @@ function sweep(n: i32): void {
       if (nodePatches) applyNodePatches(j);
       if (j == sourceRow && n < sourceLength) {
         // The source enters after the row: a −= s·I, and each Debye state at the point takes
-        // the k2·(−s·I) it would have taken had the row's update included it.
+        // the −s·I it would have taken had the row's update included it.
         const d = sourceScale * <f32>load<f64>(source + (<usize>n << 3));
         f32Set(a, sourceIndex, f32At(a, sourceIndex) - d);
         for (let s = 0; s < sourceCorrectionCount; s++) {
-          const at = sourceCorrections + (<usize>s << 3);
-          const state = <usize>load<i32>(at);
-          store<f32>(state, load<f32>(state) - load<f32>(at, 4) * d);
+          const state = <usize>load<i32>(sourceCorrections + (<usize>s << 2));
+          store<f32>(state, load<f32>(state) - d);
         }
       }
     }

@@ -24,14 +24,14 @@ export interface MediaMemoryInput extends MemoryInput {
  * TMz, b and c in TEz), ny rows of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole
  * table (64 bytes a pole); per component its patch records (48 bytes each), row starts (an
  * int32 per row and one more) and one float32 of scratch per patch; the patch state pool
- * (float32); the source point's Debye corrections (8 bytes each); then source table, probe
+ * (float32); the addresses of the source point's Debye states (int32); then source table, probe
  * series, running DFTs and the optional full-grid DFT as in the lossless engine. The
  * engine's own figure can exceed this by at most 63 bytes (alignment of the first block).
  *
  * @example
  * mediaMemoryBytes({ nx: 100, ny: 100, cells: 10, steps: 500, probes: 1, dftPoints: 1, frequencies: 1,
  *   fullGridDft: false, polarization: 'TMz', stateSlots: 1, poleRecords: 1, patches: [0, 0, 0],
- *   poolSlots: 0, sourceCorrections: 1 }); // 226824
+ *   poolSlots: 0, sourceCorrections: 1 }); // 209360
  */
 export function mediaMemoryBytes(m: MediaMemoryInput): number {
   const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
@@ -54,7 +54,7 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     (m.ny + 1) * 4, (m.ny + 1) * 4, (m.ny + 1) * 4,
     pa * 4, pb * 4, pc * 4,
     m.poolSlots * 4,
-    m.sourceCorrections * 8,
+    m.sourceCorrections * 4,
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,

@@ -124,30 +124,30 @@ export class MediaPlainKernel {
     return m;
   }
 
-  // q of `count` poles from record `first`, states from `base`, `stride` floats apart.
-  private poleTerms(e: number, st: Float32Array, base: number, stride: number, first: number, count: number): number {
-    let q = 0;
+  // The terms of `count` poles from record `first` applied to v, states from `base`,
+  // `stride` floats apart (see assembly/media.ts).
+  private poleTerms(v: number, e: number, cq: number, st: Float32Array, base: number, stride: number, first: number, count: number): number {
     let s = base;
     for (let p = first; p < first + count; p++) {
       const r = this.poles[p];
       if (r.kind === 1) {
         const j = f(f(r.k1 * st[s]) + f(r.k2 * e));
         st[s] = j;
-        q = f(q + j);
+        v = f(v - f(cq * j));
         s += stride;
       } else if (r.kind === 2) {
         const now = st[s];
         const next = f(f(f(r.k1 * now) + f(r.k2 * st[s + stride])) + f(r.k3 * e));
-        q = f(q + f(next - now));
         st[s] = next;
         st[s + stride] = now;
+        v = f(v - f(cq * f(next - now)));
         s += 2 * stride;
       } else {
-        q = f(q - f(r.k3 * st[s]));
+        v = f(v - f(f(cq * r.k3) * st[s]));
         s += stride;
       }
     }
-    return q;
+    return v;
   }
 
   private debyeUpdate(v: number, e: number, st: Float32Array, base: number, stride: number, first: number, count: number): void {
@@ -155,7 +155,7 @@ export class MediaPlainKernel {
     let s = base;
     for (let p = first; p < first + count; p++) {
       const r = this.poles[p];
-      if (r.kind === 3) st[s] = f(f(r.k1 * st[s]) + f(r.k2 * sum));
+      if (r.kind === 3) st[s] = f(f(r.k1 * st[s]) + sum);
       s += r.kind === 2 ? 2 * stride : stride;
     }
   }
@@ -208,7 +208,7 @@ export class MediaPlainKernel {
         a[s] = f(a[s] - d);
         for (const loc of this.t.sourceStates) {
           const st = loc.block === 'pool' ? this.pool : this.statesA;
-          st[loc.index] = f(st[loc.index] - f(f(loc.k2) * d));
+          st[loc.index] = f(st[loc.index] - d);
         }
       }
     }
@@ -232,7 +232,7 @@ export class MediaPlainKernel {
         v = f(v - f(cbB * f(f(yg * d) + p)));
       }
       const base = backgroundStateIndex(nx, this.t.slots, i, j, 0);
-      if (te && bg > 0) v = f(v - f(cqB * this.poleTerms(old, this.statesB, base, 4, 0, bg)));
+      if (te && bg > 0) v = this.poleTerms(v, old, cqB, this.statesB, base, 4, 0, bg);
       b[k] = v;
       if (te && bg > 0) this.debyeUpdate(v, old, this.statesB, base, 4, 0, bg);
     }
@@ -255,7 +255,7 @@ export class MediaPlainKernel {
         v = f(v + f(cbC * f(f(X.gH[i] * d) + p)));
       }
       const base = backgroundStateIndex(nx, this.t.slots, i, j, 0);
-      if (te && bg > 0) v = f(v - f(cqC * this.poleTerms(old, this.statesC, base, 4, 0, bg)));
+      if (te && bg > 0) v = this.poleTerms(v, old, cqC, this.statesC, base, 4, 0, bg);
       c[k] = v;
       if (te && bg > 0) this.debyeUpdate(v, old, this.statesC, base, 4, 0, bg);
     }
@@ -287,7 +287,7 @@ export class MediaPlainKernel {
         v = f(v - f(cbyA * f(f(yg * dB) + p)));
       }
       const base = backgroundStateIndex(nx, this.t.slots, i, j, 0);
-      if (!te && bg > 0) v = f(v - f(cqA * this.poleTerms(e, this.statesA, base, 4, 0, bg)));
+      if (!te && bg > 0) v = this.poleTerms(v, e, cqA, this.statesA, base, 4, 0, bg);
       a[k] = v;
       if (!te && bg > 0) this.debyeUpdate(v, e, this.statesA, base, 4, 0, bg);
     }
@@ -306,7 +306,7 @@ export class MediaPlainKernel {
         if (kind === PATCH_KIND.medium) {
           v = name === 'b' ? f(f(w[0] * old) - f(w[1] * d)) : f(f(w[0] * old) + f(w[1] * d));
           if (poleCount > 0) {
-            v = f(v - f(w[3] * this.poleTerms(old, this.pool, state, 1, poleFirst, poleCount)));
+            v = this.poleTerms(v, old, w[3], this.pool, state, 1, poleFirst, poleCount);
             this.debyeUpdate(v, old, this.pool, state, 1, poleFirst, poleCount);
           }
         } else if (kind === PATCH_KIND.edge) {
@@ -341,7 +341,7 @@ export class MediaPlainKernel {
         const dB = f(b[k] - b[k - nx]);
         v = f(f(f(w[0] * e) + f(w[1] * dC)) - f(w[2] * dB));
         if (poleCount > 0) {
-          v = f(v - f(w[3] * this.poleTerms(e, this.pool, state, 1, poleFirst, poleCount)));
+          v = this.poleTerms(v, e, w[3], this.pool, state, 1, poleFirst, poleCount);
           this.debyeUpdate(v, e, this.pool, state, 1, poleFirst, poleCount);
         }
       } else if (kind === PATCH_KIND.cell) {

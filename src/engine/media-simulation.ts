@@ -29,7 +29,7 @@ export interface PatchRecord {
 }
 
 /** Where a Debye state of the source point lives: the background block of `a` or the patch pool (float index). */
-export interface StateLocation { block: 'background' | 'pool'; index: number; k2: number }
+export interface StateLocation { block: 'background' | 'pool'; index: number }
 
 /**
  * Every number the media engine needs, in double precision (the engine and the plain
@@ -67,11 +67,11 @@ export function stateSlots(poles: Pole[] | undefined): number {
  * auxiliary-differential-equation updates (README "Materials"; Taflove & Hagness,
  * Computational Electrodynamics, 3rd ed., ch. 9, from memory):
  * D = ε∞ + σ·dt/2 + Σ ε0·κ'(Debye) (F/m), ca = (ε∞ − σ·dt/2 − Σ ε0·κ')/D, cq = ε0/D, and
- * cb = dt/D, which the callers divide by a cell size as dt/(D·Δ); with the pole records for states scaled to volts per metre:
- * Drude Ĵ = J·dt/ε0 (k1 = (1 − γdt/2)/(1 + γdt/2), k2 = ωp²dt²/(1 + γdt/2)),
- * Lorentz P̂ = P/ε0 (k1 = (2 − ω0²dt²)/(1 + δdt), k2 = −(1 − δdt)/(1 + δdt),
- * k3 = Δε·ω0²dt²/(1 + δdt)), Debye P̂ = P/ε0 (k1 = β = (τ/dt − ½)/(τ/dt + ½),
- * k2 = κ' = (Δε/2)/(τ/dt + ½), k3 = 1 − β = 1/(τ/dt + ½)).
+ * cb = dt/D, which the callers divide by a cell size as dt/(D·Δ); and the pole records
+ * for the scaled states of assembly/media.ts: Drude Ĵ = J·dt/ε0 (k1 = (1 − γdt/2)/(1 + γdt/2),
+ * k2 = ωp²dt²/(1 + γdt/2)), Lorentz P̂ = P/ε0 (k1 = (2 − ω0²dt²)/(1 + δdt),
+ * k2 = −(1 − δdt)/(1 + δdt), k3 = Δε·ω0²dt²/(1 + δdt)), Debye Ŝ = P/(ε0κ') with
+ * κ' = (Δε/2)/(τ/dt + ½) (k1 = β = (τ/dt − ½)/(τ/dt + ½), k3 = (β − 1)·κ').
  * Units: σ in S/m, τ in s, ωp, γ, ω0, δ in rad/s (1/s), dt in s.
  *
  * @example
@@ -85,7 +85,7 @@ export function electricCoefficients(m: Medium, dt: number): { ca: number; denom
     if (p.kind === 'debye') {
       const r = p.tau / dt + 0.5;
       kappaSum += (EPS0 * (p.deltaEps / 2)) / r;
-      return { kind: POLE_KIND.debye, k1: (p.tau / dt - 0.5) / r, k2: p.deltaEps / 2 / r, k3: 1 / r };
+      return { kind: POLE_KIND.debye, k1: (p.tau / dt - 0.5) / r, k2: 0, k3: -(p.deltaEps / 2) / (r * r) };
     }
     if (p.kind === 'drude') {
       const g = (p.gamma * dt) / 2;
@@ -207,7 +207,7 @@ export function mediaTables(scenario: Scenario, map?: MaterialMap): MediaTables 
   const debyeStates = (records: PoleRecord[], at: (slot: number) => StateLocation['index'], block: StateLocation['block']) => {
     let slot = 0;
     for (const record of records) {
-      if (record.kind === POLE_KIND.debye) sourceStates.push({ block, index: at(slot), k2: record.k2 });
+      if (record.kind === POLE_KIND.debye) sourceStates.push({ block, index: at(slot) });
       slot += record.kind === POLE_KIND.lorentz ? 2 : 1;
     }
   };
@@ -337,12 +337,9 @@ export class MediaSimulation {
       }
     }
     const corrections = t.sourceStates.length;
-    const correctionInts = this.i32(PTR.sourceCorrections, 2 * corrections);
-    const correctionFloats = this.f32(PTR.sourceCorrections, 2 * corrections);
+    const correctionAddresses = this.i32(PTR.sourceCorrections, corrections);
     t.sourceStates.forEach((s, n) => {
-      const base = engine.pointerTo(s.block === 'pool' ? PTR.patchPool : PTR.statesA);
-      correctionInts[2 * n] = base + 4 * s.index;
-      correctionFloats[2 * n + 1] = s.k2;
+      correctionAddresses[n] = engine.pointerTo(s.block === 'pool' ? PTR.patchPool : PTR.statesA) + 4 * s.index;
     });
 
     engine.setCoefficients(
