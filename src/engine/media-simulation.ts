@@ -339,7 +339,7 @@ export class MediaSimulation {
     const corrections = t.sourceStates.length;
     const correctionAddresses = this.i32(PTR.sourceCorrections, corrections);
     t.sourceStates.forEach((s, n) => {
-      correctionAddresses[n] = engine.pointerTo(s.block === 'pool' ? PTR.patchPool : PTR.statesA) + 4 * s.index;
+      correctionAddresses[n] = (engine.pointerTo(s.block === 'pool' ? PTR.patchPool : PTR.statesA) >>> 0) + 4 * s.index;
     });
 
     engine.setCoefficients(
@@ -369,17 +369,19 @@ export class MediaSimulation {
     if (!this.engine) throw new Error('simulation has been disposed');
     return this.engine;
   }
+  // Addresses are unsigned 32-bit; the raw binding hands them over as signed, so an address
+  // beyond 2 GiB would come out negative without the `>>> 0`.
   private f32(which: number, length: number): Float32Array {
     const e = this.live();
-    return new Float32Array(e.memory.buffer, e.pointerTo(which), length);
+    return new Float32Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
   }
   private f64(which: number, length: number): Float64Array {
     const e = this.live();
-    return new Float64Array(e.memory.buffer, e.pointerTo(which), length);
+    return new Float64Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
   }
   private i32(which: number, length: number): Int32Array {
     const e = this.live();
-    return new Int32Array(e.memory.buffer, e.pointerTo(which), length);
+    return new Int32Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
   }
 
   /** Time steps taken so far; samples n = 0..stepsDone of a exist. */

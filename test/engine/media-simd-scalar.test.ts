@@ -61,7 +61,7 @@ function runOn(module: WebAssembly.Module, s: Scenario, map?: MaterialMap): Outc
 
 function differing(a: Outcome, b: Outcome): string[] {
   const out: string[] = [];
-  expect([...a.words.keys()]).toEqual([...b.words.keys()]);
+  expect([...a.words.keys()]).toEqual([...b.words.keys()]); // common practice, no source
   for (const [name, words] of a.words) {
     const other = b.words.get(name) as Uint32Array;
     let n = 0;
@@ -82,8 +82,8 @@ describe('media engine: SIMD build against the scalar build', () => {
   it('the two builds really differ: only the release build holds SIMD code', async () => {
     const fs = await import('node:fs/promises');
     const text = async (name: string) => fs.readFile(new URL(`../../build/${name}`, import.meta.url), 'utf8');
-    expect(await text('media.wat')).toContain('f32x4.mul');
-    expect(await text('media-scalar.wat')).not.toContain('f32x4');
+    expect(await text('media.wat')).toContain('f32x4.mul'); // common practice, no source
+    expect(await text('media-scalar.wat')).not.toContain('f32x4'); // common practice, no source
   });
 
   // Shapes: rows a whole number of vectors or not, strips that meet in the middle, no absorber.
@@ -95,8 +95,8 @@ describe('media engine: SIMD build against the scalar build', () => {
           const s = fullScenario(nx, ny, cells, medium, polarization);
           const a = runOn(simd, s);
           const b = runOn(scalar, s);
-          expect(a.nonzero, `${nx} × ${ny}: the pulse has spread`).toBeGreaterThan((nx * ny) / 4);
-          expect(differing(a, b), `${nx} × ${ny}, CPML ${cells}`).toEqual([]);
+          expect(a.nonzero, `${nx} × ${ny}: the pulse has spread`).toBeGreaterThan((nx * ny) / 4); // common practice, no source
+          expect(differing(a, b), `${nx} × ${ny}, CPML ${cells}`).toEqual([]); // common practice, no source
         }
       });
 
@@ -106,8 +106,8 @@ describe('media engine: SIMD build against the scalar build', () => {
           const map = patchedMap(polarization, TEST_MEDIA[medium], nx, 20, 14);
           const a = runOn(simd, s, map);
           const b = runOn(scalar, s, map);
-          expect(a.nonzero).toBeGreaterThan((nx * ny) / 4);
-          expect(differing(a, b), `${nx} × ${ny}, CPML ${cells}`).toEqual([]);
+          expect(a.nonzero).toBeGreaterThan((nx * ny) / 4); // common practice, no source
+          expect(differing(a, b), `${nx} × ${ny}, CPML ${cells}`).toEqual([]); // common practice, no source
         }
       });
     }
@@ -122,7 +122,7 @@ describe('media engine: SIMD build against the scalar build', () => {
           source: { x: mid, y: mid, waveform: { kind: 'ricker', f0: 6e10, t0: 3e-11 } },
           probes: [{ name: 'centre', x: mid, y: mid }], frequencies: [2e10],
         });
-        expect(differing(runOn(simd, s), runOn(scalar, s)), `${polarization} ${n} × ${n + 1}, CPML ${cells}`).toEqual([]);
+        expect(differing(runOn(simd, s), runOn(scalar, s)), `${polarization} ${n} × ${n + 1}, CPML ${cells}`).toEqual([]); // common practice, no source
       }
     }
   });
