@@ -62,6 +62,7 @@ const V_CAA = 0; const V_CBXA = 16; const V_CBYA = 32; const V_CQA = 48;
 const V_CAB = 64; const V_CBB = 80; const V_CQB = 96;
 const V_CAC = 112; const V_CBC = 128; const V_CQC = 144;
 const COEFFICIENT_BYTES = 160;
+const STRIP_BYTES = 112; // per vector of strip columns in `stripCoefficients`
 
 let sourceScale: f32 = 0; // cb of the source point over dx·dy
 let sourceIndex: i32 = 0;
@@ -116,7 +117,8 @@ let bEx: usize = 0; let aEx: usize = 0; let gEx: usize = 0;
 let bHx: usize = 0; let aHx: usize = 0; let gHx: usize = 0;
 let bEy: usize = 0; let aEy: usize = 0; let gEy: usize = 0;
 let bHy: usize = 0; let aHy: usize = 0; let gHy: usize = 0;
-// x-strip tables regrouped per vector of strip columns: bH, aH, gH, bE, aE, gE (4 lanes each).
+// x-strip tables regrouped per vector of strip columns: bH, aH, gH, bE, aE, gE (4 lanes each),
+// then a lane mask for c: all ones, but zero on the TEz wall columns 0 and nx−2.
 let stripCoefficients: usize = 0;
 let stripCoefficientsReady = false;
 // ψ as in assembly/engine.ts: x strips (c's ∂a/∂x, a's ∂c/∂x), y strips (b's ∂a/∂y, a's ∂b/∂y),
@@ -201,7 +203,7 @@ export function allocate(
   bHx = claim(<usize>nx << 2); aHx = claim(<usize>nx << 2); gHx = claim(<usize>nx << 2);
   bEy = claim(<usize>ny << 2); aEy = claim(<usize>ny << 2); gEy = claim(<usize>ny << 2);
   bHy = claim(<usize>ny << 2); aHy = claim(<usize>ny << 2); gHy = claim(<usize>ny << 2);
-  stripCoefficients = claim(<usize>stripVectors * 96);
+  stripCoefficients = claim(<usize>stripVectors * STRIP_BYTES);
   psiX = claim(<usize>ny * <usize>stripVectors * 32);
   psiY = claim(<usize>(2 * layer) * <usize>rowVectors * 32);
   const stateBytes = <usize>ny * <usize>rowVectors * <usize>slots * 16;
@@ -347,8 +349,9 @@ function prepareStripCoefficients(): void {
   if (ASC_FEATURE_SIMD) {
     for (let col = 0; col < stripVectors << 2; col++) {
       const i = col < leftEnd ? col : rightStart + col - leftEnd;
-      const at = stripCoefficients + ((<usize>(col >> 2) * 24 + <usize>(col & 3)) << 2);
+      const at = stripCoefficients + <usize>(col >> 2) * STRIP_BYTES + (<usize>(col & 3) << 2);
       const inside = i < nx;
+      store<i32>(at, te && (i == 0 || i == nx - 2) ? 0 : -1, 96);
       store<f32>(at, inside ? f32At(bHx, i) : 0);
       store<f32>(at, inside ? f32At(aHx, i) : 0, 16);
       store<f32>(at, inside ? f32At(gHx, i) : 0, 32);
@@ -536,7 +539,7 @@ function prepareStripCoefficients(): void {
   if (ASC_FEATURE_SIMD) {
     let pA = a + (<usize>(k0 + i) << 2);
     let pC = c + (<usize>(k0 + i) << 2);
-    let pCoef = stripCoefficients + <usize>(c0 >> 2) * 96;
+    let pCoef = stripCoefficients + <usize>(c0 >> 2) * STRIP_BYTES;
     let pPsi = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
     let pS = statesC + stateOffset(j, i0);
     const sStep = <usize>bgSlots << 4;
@@ -559,7 +562,7 @@ function prepareStripCoefficients(): void {
       if (mode != NONE) v = polesV(mode, v, old, pS, cq, cqk, k1, k2, k3);
       v128.store(pC, v);
       if (mode != NONE) debyeV(mode, v, old, pS, k1);
-      pA += 16; pC += 16; pCoef += 96; pPsi += 32; pS += sStep;
+      pA += 16; pC += 16; pCoef += STRIP_BYTES; pPsi += 32; pS += sStep;
     }
   }
   for (; i < i1; i++) {
@@ -595,7 +598,7 @@ function prepareStripCoefficients(): void {
     let pA = a + (<usize>(k0 + i) << 2);
     let pB = b + (<usize>(k0 + i) << 2);
     let pC = c + (<usize>(k0 + i) << 2);
-    let pCoef = stripCoefficients + <usize>(c0 >> 2) * 96;
+    let pCoef = stripCoefficients + <usize>(c0 >> 2) * STRIP_BYTES;
     let pPsiX = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
     let pPsiY = psiY + (<usize>psiIndex(r, rowVectors, i0) << 2);
     let pS = statesA + stateOffset(j, i0);
@@ -631,7 +634,7 @@ function prepareStripCoefficients(): void {
       if (mode != NONE) v = polesV(mode, v, e, pS, cq, cqk, k1, k2, k3);
       v128.store(pA, v);
       if (mode != NONE) debyeV(mode, v, e, pS, k1);
-      pA += 16; pB += 16; pC += 16; pCoef += 96; pPsiX += 32; pPsiY += 32; pS += sStep;
+      pA += 16; pB += 16; pC += 16; pCoef += STRIP_BYTES; pPsiX += 32; pPsiY += 32; pS += sStep;
     }
   }
   for (; i < i1; i++) {
@@ -820,6 +823,24 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     i += whole;
     // Two vectors per turn without poles: the loop's own work is spread over 8 nodes. With
     // poles one vector per turn keeps the constants in registers.
+    const pEnd16 = pA + (<usize>((i1 - i0) & ~15) << 2);
+    while (mode != NONE && mode != MANY && pA < pEnd16) {
+      const a1 = v128.load(pA, 16);
+      const a2 = v128.load(pA, 32);
+      const a3 = v128.load(pA, 48);
+      const a4 = v128.load(pA, 64);
+      const c1 = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+      const c2 = fusedVector(16, a1, a2, c1, pA, pAUp, pB, pBDown, pC, pSA + sStep, pSB + sStep, pSC + sStep,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+      const c3 = fusedVector(32, a2, a3, c2, pA, pAUp, pB, pBDown, pC, pSA + 2 * sStep, pSB + 2 * sStep, pSC + 2 * sStep,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+      cLeft = fusedVector(48, a3, a4, c3, pA, pAUp, pB, pBDown, pC, pSA + 3 * sStep, pSB + 3 * sStep, pSC + 3 * sStep,
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+      a0 = a4;
+      pA += 64; pAUp += 64; pB += 64; pBDown += 64; pC += 64;
+      pSA += sStep << 2; pSB += sStep << 2; pSC += sStep << 2;
+    }
     while (mode != MANY && pA < pEnd8) {
       const a1 = v128.load(pA, 16);
       const a2 = v128.load(pA, 32);
@@ -873,6 +894,133 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     if (!tez && mode != NONE) v = polesS(v, e, statesA + so, 16, poleTable, bgPoleCount, cqA);
     f32Set(a, k, v);
     if (!tez && mode != NONE && bgDebye) debyeS(v, e, statesA + so, 16, poleTable, bgPoleCount);
+  }
+}
+
+// b, c and then a of row j over strip columns [i0, i1) (i0 a multiple of 4, strip column
+// c0) in one pass, with the x-strip terms of c and a: the strips of rows outside the y
+// strips. Per node the operations of bSeg, cSeg and aSeg, in their order; TEz wall columns
+// of c are masked to zero before their Debye update, so their states stay zero.
+@inline function stripFusedSeg(j: i32, i0: i32, i1: i32, c0: i32, tez: bool, mode: i32): void {
+  const k0 = j * nx;
+  let i = i0;
+  if (ASC_FEATURE_SIMD) {
+    const cv = coefficientVectors;
+    const cab = v128.load(cv, V_CAB); const cbb = v128.load(cv, V_CBB); const cqb = v128.load(cv, V_CQB);
+    const cac = v128.load(cv, V_CAC); const cbc = v128.load(cv, V_CBC); const cqc = v128.load(cv, V_CQC);
+    const caa = v128.load(cv, V_CAA); const cbx = v128.load(cv, V_CBXA); const cby = v128.load(cv, V_CBYA);
+    const cqa = v128.load(cv, V_CQA);
+    const k1 = v128.load(poleTable, 16); const k2 = v128.load(poleTable, 32); const k3 = v128.load(poleTable, 48);
+    const cqka = f32x4.mul(cqa, k3); const cqkb = f32x4.mul(cqb, k3); const cqkc = f32x4.mul(cqc, k3);
+    const row = <usize>nx << 2;
+    let pA = a + (<usize>(k0 + i) << 2);
+    let pB = b + (<usize>(k0 + i) << 2);
+    let pC = c + (<usize>(k0 + i) << 2);
+    let pCoef = stripCoefficients + <usize>(c0 >> 2) * STRIP_BYTES;
+    let pPsi = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
+    const so = stateOffset(j, i0);
+    let pSA = statesA + so;
+    let pSB = statesB + so;
+    let pSC = statesC + so;
+    const sStep = <usize>bgSlots << 4;
+    let aHere = v128.load(pA);
+    let cLeft = v128.load(pC - 16);
+    for (; i + 4 <= i1; i += 4) {
+      const aNext = v128.load(pA, 16);
+      const bDown = v128.load(pB - row);
+      const dy = f32x4.sub(v128.load(pA + row), aHere);
+      const dx = f32x4.sub(f32x4.shuffle(aHere, aNext, 1, 2, 3, 4), aHere);
+      const bOld = v128.load(pB);
+      const cOld = v128.load(pC);
+      let bNew = tez ? f32x4.sub(f32x4.mul(cab, bOld), f32x4.mul(cbb, dy)) : f32x4.sub(bOld, f32x4.mul(cbb, dy));
+      let cNew = tez ? f32x4.add(f32x4.mul(cac, cOld), f32x4.mul(cbc, dx)) : f32x4.add(cOld, f32x4.mul(cbc, dx));
+      const pc = f32x4.add(f32x4.mul(v128.load(pCoef), v128.load(pPsi)), f32x4.mul(v128.load(pCoef, 16), dx));
+      v128.store(pPsi, pc);
+      cNew = f32x4.add(cNew, f32x4.mul(cbc, f32x4.add(f32x4.mul(v128.load(pCoef, 32), dx), pc)));
+      if (tez) {
+        if (mode != NONE) {
+          bNew = polesV(mode, bNew, bOld, pSB, cqb, cqkb, k1, k2, k3);
+          cNew = polesV(mode, cNew, cOld, pSC, cqc, cqkc, k1, k2, k3);
+        }
+        cNew = v128.and(cNew, v128.load(pCoef, 96));
+      }
+      v128.store(pB, bNew);
+      v128.store(pC, cNew);
+      if (tez && mode != NONE) {
+        debyeV(mode, bNew, bOld, pSB, k1);
+        debyeV(mode, cNew, cOld, pSC, k1);
+      }
+      const dC = f32x4.sub(cNew, f32x4.shuffle(cLeft, cNew, 3, 4, 5, 6));
+      const dB = f32x4.sub(bNew, bDown);
+      let v = f32x4.sub(f32x4.add(tez ? aHere : f32x4.mul(caa, aHere), f32x4.mul(cbx, dC)), f32x4.mul(cby, dB));
+      const pa = f32x4.add(f32x4.mul(v128.load(pCoef, 48), v128.load(pPsi, 16)), f32x4.mul(v128.load(pCoef, 64), dC));
+      v128.store(pPsi, pa, 16);
+      v = f32x4.add(v, f32x4.mul(cbx, f32x4.add(f32x4.mul(v128.load(pCoef, 80), dC), pa)));
+      if (!tez && mode != NONE) v = polesV(mode, v, aHere, pSA, cqa, cqka, k1, k2, k3);
+      v128.store(pA, v);
+      if (!tez && mode != NONE) debyeV(mode, v, aHere, pSA, k1);
+      cLeft = cNew;
+      aHere = aNext;
+      pA += 16; pB += 16; pC += 16; pCoef += STRIP_BYTES; pPsi += 32;
+      pSA += sStep; pSB += sStep; pSC += sStep;
+    }
+  }
+  for (; i < i1; i++) {
+    const k = k0 + i;
+    const e = f32At(a, k);
+    const dy = f32At(a, k + nx) - e;
+    const dx = f32At(a, k + 1) - e;
+    const bOld = f32At(b, k);
+    const cOld = f32At(c, k);
+    const so = stateOffset(j, i);
+    const q = psiIndex(j, stripVectors, c0 + i - i0);
+    let bNew = tez ? caB * bOld - cbB * dy : bOld - cbB * dy;
+    let cNew = tez ? caC * cOld + cbC * dx : cOld + cbC * dx;
+    const pc = f32At(bHx, i) * f32At(psiX, q) + f32At(aHx, i) * dx;
+    f32Set(psiX, q, pc);
+    cNew = cNew + cbC * (f32At(gHx, i) * dx + pc);
+    if (tez) {
+      if (mode != NONE) {
+        bNew = polesS(bNew, bOld, statesB + so, 16, poleTable, bgPoleCount, cqB);
+        cNew = polesS(cNew, cOld, statesC + so, 16, poleTable, bgPoleCount, cqC);
+      }
+      if (i == 0 || i == nx - 2) cNew = 0;
+    }
+    f32Set(b, k, bNew);
+    f32Set(c, k, cNew);
+    if (tez && mode != NONE && bgDebye) {
+      debyeS(bNew, bOld, statesB + so, 16, poleTable, bgPoleCount);
+      debyeS(cNew, cOld, statesC + so, 16, poleTable, bgPoleCount);
+    }
+    const dC = cNew - f32At(c, k - 1);
+    const dB = bNew - f32At(b, k - nx);
+    let v = ((tez ? e : caA * e) + cbxA * dC) - cbyA * dB;
+    const pa = f32At(bEx, i) * f32At(psiX, q + 4) + f32At(aEx, i) * dC;
+    f32Set(psiX, q + 4, pa);
+    v = v + cbxA * (f32At(gEx, i) * dC + pa);
+    if (!tez && mode != NONE) v = polesS(v, e, statesA + so, 16, poleTable, bgPoleCount, cqA);
+    f32Set(a, k, v);
+    if (!tez && mode != NONE && bgDebye) debyeS(v, e, statesA + so, 16, poleTable, bgPoleCount);
+  }
+}
+
+function stripFusedRange(j: i32, i0: i32, i1: i32, c0: i32): void {
+  if (te) {
+    switch (bgMode) {
+      case NONE: stripFusedSeg(j, i0, i1, c0, true, NONE); break;
+      case DRUDE: stripFusedSeg(j, i0, i1, c0, true, DRUDE); break;
+      case LORENTZ: stripFusedSeg(j, i0, i1, c0, true, LORENTZ); break;
+      case DEBYE: stripFusedSeg(j, i0, i1, c0, true, DEBYE); break;
+      default: stripFusedSeg(j, i0, i1, c0, true, MANY);
+    }
+  } else {
+    switch (bgMode) {
+      case NONE: stripFusedSeg(j, i0, i1, c0, false, NONE); break;
+      case DRUDE: stripFusedSeg(j, i0, i1, c0, false, DRUDE); break;
+      case LORENTZ: stripFusedSeg(j, i0, i1, c0, false, LORENTZ); break;
+      case DEBYE: stripFusedSeg(j, i0, i1, c0, false, DEBYE); break;
+      default: stripFusedSeg(j, i0, i1, c0, false, MANY);
+    }
   }
 }
 
@@ -1029,22 +1177,12 @@ function twoPassRow(j: i32): void {
   }
 }
 
-// An interior row outside the y strips without patched b/c points: strips in two passes,
-// the columns between them in one.
+// An interior row outside the y strips without patched b/c points: each x strip and the
+// columns between them in one pass.
 function fusedRow(j: i32): void {
-  if (leftEnd > 0) {
-    bRange(j, 0, leftEnd, false);
-    cRange(j, 0, leftEnd, 0, true);
-    cWalls(j, 0, leftEnd);
-    aRange(j, 0, leftEnd, 0, 0, true, false);
-  }
+  if (leftEnd > 0) stripFusedRange(j, 0, leftEnd, 0);
   fusedRange(j, leftEnd, rightStart);
-  if (rightStart < nx) {
-    bRange(j, rightStart, nx, false);
-    cRange(j, rightStart, nx, leftEnd, true);
-    cWalls(j, rightStart, nx);
-    aRange(j, rightStart, nx, leftEnd, 0, true, false);
-  }
+  if (rightStart < nx) stripFusedRange(j, rightStart, nx, leftEnd);
 }
 
 // Running DFT of the whole grid, one row: re += a·cos, im −= a·sin (float32).

@@ -19,8 +19,8 @@ export interface MediaMemoryInput extends MemoryInput {
  * Bytes the media engine (assembly/media.ts) allocates for one simulation, block by block
  * the way its `allocate` claims them, each block starting on a 64-byte line: the update
  * coefficients as vectors (160 bytes); the float32 fields a, b, c (nx·ny each plus 16 spare
- * bytes); the CPML tables, the regrouped x-strip tables and ψ exactly as in the lossless
- * engine (src/engine/memory.ts); background pole states for each electric component (a in
+ * bytes); the CPML tables and ψ exactly as in the lossless engine (src/engine/memory.ts),
+ * the x-strip tables regrouped with a lane mask (112 bytes per vector of strip columns); background pole states for each electric component (a in
  * TMz, b and c in TEz), ny rows of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole
  * table (64 bytes a pole); per component its patch records (48 bytes each), row starts (an
  * int32 per row and one more) and one float32 of scratch per patch; the patch state pool
@@ -45,7 +45,7 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     160,
     cells * 4 + 16, cells * 4 + 16, cells * 4 + 16,
     ...Array<number>(6).fill(m.nx * 4), ...Array<number>(6).fill(m.ny * 4),
-    strip * 96,
+    strip * 112,
     m.ny * strip * 32,
     2 * m.cells * rowVectors * 32,
     te ? 0 : states, te ? states : 0, te ? states : 0,

@@ -57,7 +57,13 @@ export interface MediaTables {
   y: ReturnType<typeof cpmlAxisTables>;
 }
 
-/** State values a pole list needs per node: one per Drude or Debye pole, two per Lorentz pole. */
+/**
+ * State values a pole list needs per node: one per Drude or Debye pole, two per Lorentz
+ * pole (P^n and P^{n−1} of its second-order update).
+ *
+ * @example
+ * stateSlots([{ kind: 'lorentz', deltaEps: 1, omega0: 1e11, delta: 1e9 }]); // 2
+ */
 export function stateSlots(poles: Pole[] | undefined): number {
   return (poles ?? []).reduce((n, p) => n + (p.kind === 'lorentz' ? 2 : 1), 0);
 }
@@ -99,7 +105,13 @@ export function electricCoefficients(m: Medium, dt: number): { ca: number; denom
   return { ca: (eps - halfSigma - kappaSum) / denominator, denominator, cq: EPS0 / denominator, poles };
 }
 
-/** Byte offset (over 4: a float index) of state `slot` of node (i, j) in a background state block. */
+/**
+ * Float index of state `slot` of node (i, j) in a background state block of assembly/media.ts:
+ * per row ⌈nx/4⌉ vectors of four columns, per vector `slots` groups of four lanes.
+ *
+ * @example
+ * backgroundStateIndex(10, 2, 5, 1, 1); // ((1·3 + 1)·2 + 1)·4 + 1 = 37
+ */
 export function backgroundStateIndex(nx: number, slots: number, i: number, j: number, slot: number): number {
   const rowVectors = Math.ceil(nx / 4);
   return (j * rowVectors + (i >> 2)) * slots * 4 + slot * 4 + (i & 3);
@@ -107,9 +119,11 @@ export function backgroundStateIndex(nx: number, slots: number, i: number, j: nu
 
 /**
  * The tables of one run from a scenario and a material map (without a map: the scenario's
- * medium and polarization, no patches). Throws when a patch does not suit its component
- * and polarization, when patches are not sorted by k, or when a patch lies where its
- * component takes CPML terms or on the outer wall (objects must stay out of the absorber).
+ * medium and polarization, no patches). The time step is the scenario's (its medium is the
+ * map's background). Throws when the map's polarization is not the scenario's, when a
+ * patch does not suit its component and polarization, when patches are not sorted by k,
+ * or when a patch lies where its component takes CPML terms or on the outer wall (objects
+ * must stay out of the absorber).
  *
  * @example
  * mediaTables(scenario).a.ca; // 1 for a lossless TMz scenario
@@ -119,7 +133,11 @@ export function mediaTables(scenario: Scenario, map?: MaterialMap): MediaTables 
   const { nx, ny, dx, dy, dt } = layout;
   const L = scenario.absorber.cells;
   const background = map?.background ?? scenario.medium;
-  const te = (map?.polarization ?? scenario.polarization ?? 'TMz') === 'TEz';
+  const polarization = scenario.polarization ?? 'TMz';
+  if (map && map.polarization !== polarization) {
+    throw new Error(`material map: built for ${map.polarization}, but the scenario runs ${polarization}`);
+  }
+  const te = polarization === 'TEz';
   const medium = electricCoefficients(background, dt);
   const poles: PoleRecord[] = [...medium.poles];
   const poleSets = new Map<string, number>();
@@ -263,6 +281,11 @@ const PTR = {
  * number over its 2D limit (exact for γ = 0, δ = 0; damping only helps): from the scheme's
  * dispersion relation μ0ε0ε̃r(ω)Ω² = K², all roots Ω² of which must lie in [0, 4/dt²) for
  * every grid wavenumber K up to its largest, K²c∞²dt² = 4s² (von Neumann analysis).
+ *
+ * @example
+ * const sim = await MediaSimulation.create({ ...scenario, medium: { epsR: 2, sigma: 0.01 } });
+ * sim.run();
+ * sim.probeDft(0, 0); // [re, im] of Ez at the first probe and frequency
  */
 export class MediaSimulation {
   readonly scenario: Scenario;

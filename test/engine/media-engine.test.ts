@@ -251,6 +251,8 @@ describe('media engine: patches', () => {
     // the last column a c edge may take: i = nx − 2 − cells
     const edge: MaterialMap = { polarization: 'TMz', background: TEST_MEDIA.lossless, a: [], b: [], c: [{ k: 20 * 64 + 52, kind: 'pec' }], nodesPerObject: [] };
     expect(() => new MediaSimulation(media, s, {}, edge)).not.toThrow(); // common practice, no source
+    const other: MaterialMap = { polarization: 'TEz', background: TEST_MEDIA.lossless, a: [], b: [], c: [], nodesPerObject: [] };
+    expect(() => new MediaSimulation(media, s, {}, other)).toThrow('built for TEz, but the scenario runs TMz'); // common practice, no source
     const tez: MaterialMap = { polarization: 'TEz', background: TEST_MEDIA.lossless, a: [{ k, kind: 'conformal', areaFraction: 0, edgeFractions: [1, 1, 1, 1] }], b: [], c: [], nodesPerObject: [] };
     expect(() => new MediaSimulation(media, { ...s, polarization: 'TEz' }, {}, tez)).toThrow('areaFraction'); // common practice, no source
   });
