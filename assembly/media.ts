@@ -10,9 +10,16 @@
 //   b ← ca_b·b − cb_b·(a(j+1) − a(j))       (cb_b holds 1/dy)
 //   c ← ca_c·c + cb_c·(a(i+1) − a(i))       (cb_c holds 1/dx)
 //   a ← ca_a·a + cbx·(c(i) − c(i−1)) − cby·(b(j) − b(j−1)) − (source)
-// each plus its CPML terms (ψ and (1/κ − 1)·∂, multiplied by the same cb) and, on an
-// electric component, its pole terms −cq·q. The electric component(s) carry the medium:
-// a in TMz, b and c in TEz; the magnetic ones have ca = 1 and no poles.
+// each plus its CPML terms (ψ and (1/κ − 1)·∂, multiplied by the same cb, so they sit
+// inside the curl before the medium's coefficients) and, on an electric component, its
+// pole terms. The electric component(s) carry the medium: a in TMz, b and c in TEz; the
+// magnetic ones have ca = 1, cb = dt/(μ0·Δ) and no poles. The source enters a as −s·I
+// (TMz) or −s·M (TEz), s = the point's cb over dx·dy, at (n+½)dt.
+//
+// Outer walls: a = 0 on the outermost nodes, as in assembly/engine.ts. In TMz that is a
+// PEC wall; in TEz it would be a magnetic one, so TEz instead holds tangential E at zero
+// on the edges half a cell inside: c (−Ey) on columns 0 and nx−2, b (−Ex) on rows 0 and
+// ny−2 (never updated). The outermost Hz nodes lie outside that PEC box and stay zero.
 //
 // Pole states are stored scaled so that their updates need the fewest operations: Drude
 // Ĵ = J·dt/ε0 and Lorentz P̂ = P/ε0 (volts per metre), Debye Ŝ = P/(ε0·κ') with κ' the
@@ -31,10 +38,10 @@
 //
 // One time step is one sweep over the rows. Row j: b and c of row j (they read a of rows j
 // and j+1, both still old), then a of row j (it reads b of rows j−1 and j and c of row j,
-// all new). Outside the CPML strips and in rows without patched b/c points the two run in
-// one pass per vector (as in assembly/engine.ts); the strips, the y-strip rows and rows
-// with patched b/c points run b and c over the range first and then a. Each node sees the
-// same operations in the same order either way.
+// all new). In rows outside the y strips without patched b/c points the two run in one
+// pass per vector (as in assembly/engine.ts), x strips included; the y-strip rows, rows
+// with patched b/c points and the TEz rows next to a wall run b and c over the row first
+// and then a. Each node sees the same operations in the same order either way.
 //
 // Patches (objects) are lists of points per component, sorted by k, with per-row starts.
 // A patched b/c point's new value is computed from the old fields before its row is swept

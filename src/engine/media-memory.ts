@@ -19,19 +19,20 @@ export interface MediaMemoryInput extends MemoryInput {
  * Bytes the media engine (assembly/media.ts) allocates for one simulation, block by block
  * the way its `allocate` claims them, each block starting on a 64-byte line: the update
  * coefficients as vectors (160 bytes); the float32 fields a, b, c (nx·ny each plus 16 spare
- * bytes); the CPML tables and ψ exactly as in the lossless engine (src/engine/memory.ts),
- * the x-strip tables regrouped with a lane mask (112 bytes per vector of strip columns); background pole states for each electric component (a in
- * TMz, b and c in TEz), ny rows of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole
- * table (64 bytes a pole); per component its patch records (48 bytes each), row starts (an
- * int32 per row and one more) and one float32 of scratch per patch; the patch state pool
- * (float32); the addresses of the source point's Debye states (int32); then source table, probe
- * series, running DFTs and the optional full-grid DFT as in the lossless engine. The
- * engine's own figure can exceed this by at most 63 bytes (alignment of the first block).
+ * bytes); the CPML tables and ψ as in the lossless engine (src/engine/memory.ts), the
+ * x-strip tables regrouped with a lane mask (112 bytes per vector of strip columns);
+ * background pole states for each electric component (a in TMz, b and c in TEz), ny rows
+ * of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole table (64 bytes a pole); per
+ * component its patch records (48 bytes each), row starts (an int32 per row and one more)
+ * and one float32 of scratch per patch; the patch state pool (float32); the addresses of
+ * the source point's Debye states (int32); then source table, probe series, running DFTs
+ * and the optional full-grid DFT as in the lossless engine. The engine's own figure can
+ * exceed this by at most 63 bytes (alignment of the first block).
  *
  * @example
  * mediaMemoryBytes({ nx: 100, ny: 100, cells: 10, steps: 500, probes: 1, dftPoints: 1, frequencies: 1,
  *   fullGridDft: false, polarization: 'TMz', stateSlots: 1, poleRecords: 1, patches: [0, 0, 0],
- *   poolSlots: 0, sourceCorrections: 1 }); // 209360
+ *   poolSlots: 0, sourceCorrections: 1 }); // 209488
  */
 export function mediaMemoryBytes(m: MediaMemoryInput): number {
   const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
