@@ -145,6 +145,16 @@ let rowStartA: usize = 0; let rowStartB: usize = 0; let rowStartC: usize = 0;
 let scratchA: usize = 0; let scratchB: usize = 0; let scratchC: usize = 0;
 let patchPool: usize = 0; // patch pole states, f32
 let sourceCorrections: usize = 0; // i32 byte address of each Debye state at the source point
+// PEC points, per component, as runs of consecutive k within a row: (first k, length) as two
+// i32, sorted, with per-row starts like the patches. Each row with PEC b or c points also
+// has a mask row (built at the first step): nx lanes for b, then nx for c, all ones but
+// zero at PEC points; maskRowOf holds its number for each row, or −1.
+let pecRunsA: usize = 0; let pecRunsB: usize = 0; let pecRunsC: usize = 0;
+let pecStartA: usize = 0; let pecStartB: usize = 0; let pecStartC: usize = 0;
+let maskRowCount: i32 = 0;
+let maskRowOf: usize = 0;
+let maskRows: usize = 0;
+let masksReady = false;
 
 let source: usize = 0; // f64 per step: I or M at (n+½)dt
 let probeCount: i32 = 0;
@@ -173,14 +183,16 @@ function claim(bytes: usize): usize {
  * Claims memory for one simulation. Returns the bytes claimed, or 0 when the memory cannot
  * grow that far. `polarization` 0 = TMz, 1 = TEz; `slots` background state values per node
  * of each electric component (0 = no background poles); `poles` records in the pole table;
- * `patchA/B/C` patch counts; `poolSlots` patch state values; `corrections` Debye states at
- * the source point.
+ * `patchA/B/C` patch counts (PEC points apart); `poolSlots` patch state values;
+ * `corrections` Debye states at the source point; `runsA/B/C` runs of PEC points;
+ * `maskRowsIn` rows with PEC b or c points.
  */
 export function allocate(
   nxIn: i32, nyIn: i32, layerIn: i32, steps: i32,
   probes: i32, points: i32, frequencies: i32, fullGrid: i32,
   polarization: i32, slots: i32, poles: i32,
   patchA: i32, patchB: i32, patchC: i32, poolSlots: i32, corrections: i32,
+  runsA: i32, runsB: i32, runsC: i32, maskRowsIn: i32,
 ): f64 {
   nx = nxIn; ny = nyIn; layer = layerIn;
   te = polarization == 1;
@@ -229,6 +241,16 @@ export function allocate(
   scratchC = claim(<usize>patchC << 2);
   patchPool = claim(<usize>poolSlots << 2);
   sourceCorrections = claim(<usize>corrections << 2);
+  pecRunsA = claim(<usize>runsA << 3);
+  pecRunsB = claim(<usize>runsB << 3);
+  pecRunsC = claim(<usize>runsC << 3);
+  pecStartA = claim(<usize>(ny + 1) << 2);
+  pecStartB = claim(<usize>(ny + 1) << 2);
+  pecStartC = claim(<usize>(ny + 1) << 2);
+  maskRowCount = maskRowsIn;
+  maskRowOf = claim(<usize>ny << 2);
+  maskRows = claim(<usize>maskRowsIn * <usize>nx << 3);
+  masksReady = false;
   source = claim(<usize>steps << 3);
   probeIndex = claim(<usize>probes << 2);
   series = claim((<usize>probes * <usize>seriesLength) << 2);
@@ -316,6 +338,12 @@ export function pointerTo(which: i32): usize {
     case 35: return rowStartC;
     case 36: return patchPool;
     case 37: return sourceCorrections;
+    case 38: return pecRunsA;
+    case 39: return pecRunsB;
+    case 40: return pecRunsC;
+    case 41: return pecStartA;
+    case 42: return pecStartB;
+    case 43: return pecStartC;
   }
   return 0;
 }
@@ -352,6 +380,30 @@ export function stepsDone(): i32 {
 }
 
 // Regroups the x-strip coefficient tables for the vector loops (release build only).
+// Builds the mask rows from the PEC runs of b and c.
+function prepareMasks(): void {
+  let next = 0;
+  for (let j = 0; j < ny; j++) {
+    const any = i32At(pecStartB, j + 1) > i32At(pecStartB, j) || i32At(pecStartC, j + 1) > i32At(pecStartC, j);
+    store<i32>(maskRowOf + (<usize>j << 2), any ? next : -1);
+    if (!any) continue;
+    const row = maskRows + (<usize>next * <usize>nx << 3);
+    for (let i = 0; i < 2 * nx; i++) store<i32>(row + (<usize>i << 2), -1);
+    for (let pass = 0; pass < 2; pass++) {
+      const runs = pass == 0 ? pecRunsB : pecRunsC;
+      const starts = pass == 0 ? pecStartB : pecStartC;
+      const base = row + (pass == 0 ? 0 : <usize>nx << 2);
+      for (let r = i32At(starts, j); r < i32At(starts, j + 1); r++) {
+        const i0 = load<i32>(runs + (<usize>r << 3)) - j * nx;
+        const length = load<i32>(runs + (<usize>r << 3), 4);
+        for (let i = i0; i < i0 + length; i++) store<i32>(base + (<usize>i << 2), 0);
+      }
+    }
+    next++;
+  }
+  masksReady = true;
+}
+
 function prepareStripCoefficients(): void {
   if (ASC_FEATURE_SIMD) {
     for (let col = 0; col < stripVectors << 2; col++) {
@@ -714,17 +766,24 @@ function cRange(j: i32, i0: i32, i1: i32, c0: i32, xStrip: bool): void {
   }
 }
 
+function aRangeTMNone(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, NONE); }
+function aRangeTMDrude(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DRUDE); }
+function aRangeTMLorentz(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, LORENTZ); }
+function aRangeTMDebye(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DEBYE); }
+function aRangeTMMany(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, MANY); }
+function aRangeTE(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void { aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, false, NONE); }
+
 function aRange(j: i32, i0: i32, i1: i32, c0: i32, r: i32, xStrip: bool, yStrip: bool): void {
   if (te) {
-    aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, false, NONE);
+    aRangeTE(j, i0, i1, c0, r, xStrip, yStrip);
     return;
   }
   switch (bgMode) {
-    case NONE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, NONE); break;
-    case DRUDE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DRUDE); break;
-    case LORENTZ: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, LORENTZ); break;
-    case DEBYE: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, DEBYE); break;
-    default: aRangeAs(j, i0, i1, c0, r, xStrip, yStrip, true, MANY);
+    case NONE: aRangeTMNone(j, i0, i1, c0, r, xStrip, yStrip); break;
+    case DRUDE: aRangeTMDrude(j, i0, i1, c0, r, xStrip, yStrip); break;
+    case LORENTZ: aRangeTMLorentz(j, i0, i1, c0, r, xStrip, yStrip); break;
+    case DEBYE: aRangeTMDebye(j, i0, i1, c0, r, xStrip, yStrip); break;
+    default: aRangeTMMany(j, i0, i1, c0, r, xStrip, yStrip);
   }
 }
 
@@ -755,7 +814,7 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
   pA: usize, pAUp: usize, pB: usize, pBDown: usize, pC: usize, pSA: usize, pSB: usize, pSC: usize,
   cab: v128, cbb: v128, cqb: v128, cqkb: v128, cac: v128, cbc: v128, cqc: v128, cqkc: v128,
   caa: v128, cbx: v128, cby: v128, cqa: v128, cqka: v128, k1: v128, k2: v128, k3: v128,
-  tez: bool, mode: i32,
+  dMB: usize, dMC: usize, tez: bool, mode: i32, masked: bool,
 ): v128 {
   // b of row j−1 is read before b of row j is written (see assembly/engine.ts fusedVector).
   const bDown = v128.load(pBDown + d);
@@ -775,6 +834,11 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
   } else {
     bNew = f32x4.sub(bOld, f32x4.mul(cbb, dy));
     cNew = f32x4.add(cOld, f32x4.mul(cbc, dx));
+  }
+  if (masked) {
+    // PEC points of b and c: zero before use (their states stay zero, as after zeroRuns)
+    bNew = v128.and(bNew, v128.load(pA + dMB + d));
+    cNew = v128.and(cNew, v128.load(pA + dMC + d));
   }
   v128.store(pB + d, bNew);
   v128.store(pC + d, cNew);
@@ -799,9 +863,13 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
   return cNew;
 }
 
-@inline function fusedSeg(j: i32, i0: i32, i1: i32, tez: bool, mode: i32): void {
+@inline function fusedSeg(j: i32, i0: i32, i1: i32, tez: bool, mode: i32, masked: bool): void {
   const k0 = j * nx;
   let i = i0;
+  // byte distance from a's node k to the b and c mask lanes of its column
+  const maskRow = masked ? maskRows + (<usize>i32At(maskRowOf, j) * <usize>nx << 3) : 0;
+  const dMB = maskRow - (a + (<usize>k0 << 2));
+  const dMC = dMB + (<usize>nx << 2);
   if (ASC_FEATURE_SIMD) {
     const cv = coefficientVectors;
     const cab = v128.load(cv, V_CAB); const cbb = v128.load(cv, V_CBB); const cqb = v128.load(cv, V_CQB);
@@ -837,13 +905,13 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
       const a3 = v128.load(pA, 48);
       const a4 = v128.load(pA, 64);
       const c1 = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       const c2 = fusedVector(16, a1, a2, c1, pA, pAUp, pB, pBDown, pC, pSA + sStep, pSB + sStep, pSC + sStep,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       const c3 = fusedVector(32, a2, a3, c2, pA, pAUp, pB, pBDown, pC, pSA + 2 * sStep, pSB + 2 * sStep, pSC + 2 * sStep,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       cLeft = fusedVector(48, a3, a4, c3, pA, pAUp, pB, pBDown, pC, pSA + 3 * sStep, pSB + 3 * sStep, pSC + 3 * sStep,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       a0 = a4;
       pA += 64; pAUp += 64; pB += 64; pBDown += 64; pC += 64;
       pSA += sStep << 2; pSB += sStep << 2; pSC += sStep << 2;
@@ -852,9 +920,9 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
       const a1 = v128.load(pA, 16);
       const a2 = v128.load(pA, 32);
       const c1 = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       cLeft = fusedVector(16, a1, a2, c1, pA, pAUp, pB, pBDown, pC, pSA + sStep, pSB + sStep, pSC + sStep,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       a0 = a2;
       pA += 32; pAUp += 32; pB += 32; pBDown += 32; pC += 32;
       pSA += sStep << 1; pSB += sStep << 1; pSC += sStep << 1;
@@ -862,7 +930,7 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     while (pA < pEnd4) {
       const a1 = v128.load(pA, 16);
       cLeft = fusedVector(0, a0, a1, cLeft, pA, pAUp, pB, pBDown, pC, pSA, pSB, pSC,
-        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, tez, mode);
+        cab, cbb, cqb, cqkb, cac, cbc, cqc, cqkc, caa, cbx, cby, cqa, cqka, k1, k2, k3, dMB, dMC, tez, mode, masked);
       a0 = a1;
       pA += 16; pAUp += 16; pB += 16; pBDown += 16; pC += 16;
       pSA += sStep; pSB += sStep; pSC += sStep;
@@ -888,6 +956,10 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     } else {
       bNew = bOld - cbB * dy;
       cNew = cOld + cbC * dx;
+    }
+    if (masked) {
+      bNew = reinterpret<f32>(reinterpret<i32>(bNew) & load<i32>(maskRow + (<usize>i << 2)));
+      cNew = reinterpret<f32>(reinterpret<i32>(cNew) & load<i32>(maskRow + (<usize>(nx + i) << 2)));
     }
     f32Set(b, k, bNew);
     f32Set(c, k, cNew);
@@ -1011,42 +1083,80 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
   }
 }
 
+function stripTMNone(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, false, NONE); }
+function stripTMDrude(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, false, DRUDE); }
+function stripTMLorentz(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, false, LORENTZ); }
+function stripTMDebye(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, false, DEBYE); }
+function stripTMMany(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, false, MANY); }
+function stripTENone(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, true, NONE); }
+function stripTEDrude(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, true, DRUDE); }
+function stripTELorentz(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, true, LORENTZ); }
+function stripTEDebye(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, true, DEBYE); }
+function stripTEMany(j: i32, i0: i32, i1: i32, c0: i32): void { stripFusedSeg(j, i0, i1, c0, true, MANY); }
+
 function stripFusedRange(j: i32, i0: i32, i1: i32, c0: i32): void {
   if (te) {
     switch (bgMode) {
-      case NONE: stripFusedSeg(j, i0, i1, c0, true, NONE); break;
-      case DRUDE: stripFusedSeg(j, i0, i1, c0, true, DRUDE); break;
-      case LORENTZ: stripFusedSeg(j, i0, i1, c0, true, LORENTZ); break;
-      case DEBYE: stripFusedSeg(j, i0, i1, c0, true, DEBYE); break;
-      default: stripFusedSeg(j, i0, i1, c0, true, MANY);
+      case NONE: stripTENone(j, i0, i1, c0); break;
+      case DRUDE: stripTEDrude(j, i0, i1, c0); break;
+      case LORENTZ: stripTELorentz(j, i0, i1, c0); break;
+      case DEBYE: stripTEDebye(j, i0, i1, c0); break;
+      default: stripTEMany(j, i0, i1, c0);
     }
   } else {
     switch (bgMode) {
-      case NONE: stripFusedSeg(j, i0, i1, c0, false, NONE); break;
-      case DRUDE: stripFusedSeg(j, i0, i1, c0, false, DRUDE); break;
-      case LORENTZ: stripFusedSeg(j, i0, i1, c0, false, LORENTZ); break;
-      case DEBYE: stripFusedSeg(j, i0, i1, c0, false, DEBYE); break;
-      default: stripFusedSeg(j, i0, i1, c0, false, MANY);
+      case NONE: stripTMNone(j, i0, i1, c0); break;
+      case DRUDE: stripTMDrude(j, i0, i1, c0); break;
+      case LORENTZ: stripTMLorentz(j, i0, i1, c0); break;
+      case DEBYE: stripTMDebye(j, i0, i1, c0); break;
+      default: stripTMMany(j, i0, i1, c0);
     }
   }
 }
 
+// One function per variant keeps each function small enough for the optimizer.
+function fusedTMNone(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, NONE, false); }
+function fusedTMDrude(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, DRUDE, false); }
+function fusedTMLorentz(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, LORENTZ, false); }
+function fusedTMDebye(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, DEBYE, false); }
+function fusedTMMany(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, MANY, false); }
+function fusedTMNoneMasked(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, NONE, true); }
+function fusedTMManyMasked(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, false, MANY, true); }
+function fusedTENone(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, NONE, false); }
+function fusedTEDrude(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, DRUDE, false); }
+function fusedTELorentz(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, LORENTZ, false); }
+function fusedTEDebye(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, DEBYE, false); }
+function fusedTEMany(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, MANY, false); }
+function fusedTENoneMasked(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, NONE, true); }
+function fusedTEManyMasked(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1, true, MANY, true); }
+
+// The columns between the strips of row j in one pass, with the PEC masks of b and c when
+// the row has PEC b or c points (then a one-pole background takes the loop over the pole
+// table, which does the same operations).
 function fusedRange(j: i32, i0: i32, i1: i32): void {
+  if (maskRowCount > 0 && i32At(maskRowOf, j) >= 0) {
+    if (te) {
+      if (bgMode == NONE) fusedTENoneMasked(j, i0, i1); else fusedTEManyMasked(j, i0, i1);
+    } else {
+      if (bgMode == NONE) fusedTMNoneMasked(j, i0, i1); else fusedTMManyMasked(j, i0, i1);
+    }
+    return;
+  }
   if (te) {
     switch (bgMode) {
-      case NONE: fusedSeg(j, i0, i1, true, NONE); break;
-      case DRUDE: fusedSeg(j, i0, i1, true, DRUDE); break;
-      case LORENTZ: fusedSeg(j, i0, i1, true, LORENTZ); break;
-      case DEBYE: fusedSeg(j, i0, i1, true, DEBYE); break;
-      default: fusedSeg(j, i0, i1, true, MANY);
+      case NONE: fusedTENone(j, i0, i1); break;
+      case DRUDE: fusedTEDrude(j, i0, i1); break;
+      case LORENTZ: fusedTELorentz(j, i0, i1); break;
+      case DEBYE: fusedTEDebye(j, i0, i1); break;
+      default: fusedTEMany(j, i0, i1);
     }
   } else {
     switch (bgMode) {
-      case NONE: fusedSeg(j, i0, i1, false, NONE); break;
-      case DRUDE: fusedSeg(j, i0, i1, false, DRUDE); break;
-      case LORENTZ: fusedSeg(j, i0, i1, false, LORENTZ); break;
-      case DEBYE: fusedSeg(j, i0, i1, false, DEBYE); break;
-      default: fusedSeg(j, i0, i1, false, MANY);
+      case NONE: fusedTMNone(j, i0, i1); break;
+      case DRUDE: fusedTMDrude(j, i0, i1); break;
+      case LORENTZ: fusedTMLorentz(j, i0, i1); break;
+      case DEBYE: fusedTMDebye(j, i0, i1); break;
+      default: fusedTMMany(j, i0, i1);
     }
   }
 }
@@ -1104,6 +1214,24 @@ function writeEdgePatches(j: i32): void {
       const k = load<i32>(patchAt(block, p));
       f32Set(field, k, f32At(scratch, p));
       if (te && bgPoleCount > 0) clearStates(states, j, k - j * nx);
+    }
+  }
+}
+
+// Zeroes the PEC runs of one component in row j, and the background states there.
+function zeroRuns(field: usize, runs: usize, starts: usize, states: usize, j: i32): void {
+  const r1 = i32At(starts, j + 1);
+  for (let r = i32At(starts, j); r < r1; r++) {
+    const k0 = load<i32>(runs + (<usize>r << 3));
+    const length = load<i32>(runs + (<usize>r << 3), 4);
+    let k = k0;
+    if (ASC_FEATURE_SIMD) {
+      const zero = f32x4.splat(0);
+      for (; k + 4 <= k0 + length; k += 4) v128.store(field + (<usize>k << 2), zero);
+    }
+    for (; k < k0 + length; k++) f32Set(field, k, 0);
+    if (states != 0) {
+      for (let i = k0 - j * nx; i < k0 - j * nx + length; i++) clearStates(states, j, i);
     }
   }
 }
@@ -1175,6 +1303,8 @@ function twoPassRow(j: i32): void {
   }
   cWalls(j, 0, nx);
   writeEdgePatches(j);
+  zeroRuns(b, pecRunsB, pecStartB, te && bgPoleCount > 0 ? statesB : 0, j);
+  zeroRuns(c, pecRunsC, pecStartC, te && bgPoleCount > 0 ? statesC : 0, j);
   if (layer == 0) {
     aRange(j, 0, nx, 0, r, false, aY);
   } else {
@@ -1244,6 +1374,7 @@ function sweep(n: i32): void {
         clearStates(statesA, j, nx - 1);
       }
       if (nodePatches) applyNodePatches(j);
+      zeroRuns(a, pecRunsA, pecStartA, !te && bgPoleCount > 0 ? statesA : 0, j);
       if (j == sourceRow && n < sourceLength) {
         // The source enters after the row: a −= s·I, and each Debye state at the point takes
         // the −s·I it would have taken had the row's update included it.
@@ -1297,6 +1428,7 @@ function record(n: i32): void {
 /** Advances `count` time steps: b and c to n+½, a to n+1 with the source at (n+½)dt. */
 export function step(count: i32): void {
   if (!stripCoefficientsReady) prepareStripCoefficients();
+  if (!masksReady) prepareMasks();
   for (let s = 0; s < count; s++) {
     const n = stepCount;
     sweep(n);

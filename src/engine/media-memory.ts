@@ -10,9 +10,14 @@ export interface MediaMemoryInput extends MemoryInput {
   polarization: 'TMz' | 'TEz';
   stateSlots: number;
   poleRecords: number;
+  /** Patched points of a, b, c other than PEC. */
   patches: [number, number, number];
   poolSlots: number;
   sourceCorrections: number;
+  /** Runs of consecutive PEC points within a row, of a, b, c. */
+  pecRuns: [number, number, number];
+  /** Rows with PEC points of b or c. */
+  maskRows: number;
 }
 
 /**
@@ -25,14 +30,16 @@ export interface MediaMemoryInput extends MemoryInput {
  * of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole table (64 bytes a pole); per
  * component its patch records (48 bytes each), row starts (an int32 per row and one more)
  * and one float32 of scratch per patch; the patch state pool (float32); the addresses of
- * the source point's Debye states (int32); then source table, probe series, running DFTs
- * and the optional full-grid DFT as in the lossless engine. The engine's own figure can
+ * the source point's Debye states (int32); per component its PEC runs (two int32 each) and
+ * their row starts; the mask row of each row (int32) and the mask rows (2·nx int32 each);
+ * then source table, probe series, running DFTs and the optional full-grid DFT as in the
+ * lossless engine. The engine's own figure can
  * exceed this by at most 63 bytes (alignment of the first block).
  *
  * @example
  * mediaMemoryBytes({ nx: 100, ny: 100, cells: 10, steps: 500, probes: 1, dftPoints: 1, frequencies: 1,
  *   fullGridDft: false, polarization: 'TMz', stateSlots: 1, poleRecords: 1, patches: [0, 0, 0],
- *   poolSlots: 0, sourceCorrections: 1 }); // 209488
+ *   poolSlots: 0, sourceCorrections: 1, pecRuns: [0, 0, 0], maskRows: 0 }); // 211280
  */
 export function mediaMemoryBytes(m: MediaMemoryInput): number {
   const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
@@ -56,6 +63,9 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     pa * 4, pb * 4, pc * 4,
     m.poolSlots * 4,
     m.sourceCorrections * 4,
+    m.pecRuns[0] * 8, m.pecRuns[1] * 8, m.pecRuns[2] * 8,
+    (m.ny + 1) * 4, (m.ny + 1) * 4, (m.ny + 1) * 4,
+    m.ny * 4, m.maskRows * m.nx * 8,
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,

@@ -264,8 +264,31 @@ const PTR = {
   source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
   fullRe: 21, fullIm: 22, poleTable: 26, statesA: 27,
   patchesA: 30, patchesB: 31, patchesC: 32, rowStartA: 33, rowStartB: 34, rowStartC: 35,
-  patchPool: 36, sourceCorrections: 37,
+  patchPool: 36, sourceCorrections: 37, pecRunsA: 38, pecRunsB: 39, pecRunsC: 40, pecStartA: 41, pecStartB: 42, pecStartC: 43,
 } as const;
+
+/** PEC points of one component as runs of consecutive k within a row: [first k, length] pairs. */
+function pecRuns(list: PatchRecord[], nx: number): number[] {
+  const runs: number[] = [];
+  for (const p of list) {
+    if (p.kind !== PATCH_KIND.pec) continue;
+    const last = runs.length - 2;
+    if (last >= 0 && runs[last] + runs[last + 1] === p.k && Math.floor(runs[last] / nx) === Math.floor(p.k / nx)) runs[last + 1]++;
+    else runs.push(p.k, 1);
+  }
+  return runs;
+}
+
+/** Index of the first run (pairs) or record of each row j = 0..ny, for lists sorted by k. */
+function rowStarts(firstKs: number[], nx: number, ny: number): Int32Array {
+  const starts = new Int32Array(ny + 1);
+  let p = 0;
+  for (let j = 0; j <= ny; j++) {
+    while (p < firstKs.length && firstKs[p] < j * nx) p++;
+    starts[j] = p;
+  }
+  return starts;
+}
 
 /**
  * One FDTD run in lossy or dispersive media, TMz or TEz, with objects given by a material
@@ -318,19 +341,29 @@ export class MediaSimulation {
     }
     this.pointCount = points;
     const frequencies = scenario.frequencies;
-    const counts: [number, number, number] = [t.patches.a.length, t.patches.b.length, t.patches.c.length];
+    // PEC points go to the engine as runs, the other patches as records.
+    const records = {
+      a: t.patches.a.filter((p) => p.kind !== PATCH_KIND.pec),
+      b: t.patches.b.filter((p) => p.kind !== PATCH_KIND.pec),
+      c: t.patches.c.filter((p) => p.kind !== PATCH_KIND.pec),
+    };
+    const runs = { a: pecRuns(t.patches.a, nx), b: pecRuns(t.patches.b, nx), c: pecRuns(t.patches.c, nx) };
+    const counts: [number, number, number] = [records.a.length, records.b.length, records.c.length];
+    const runCounts: [number, number, number] = [runs.a.length / 2, runs.b.length / 2, runs.c.length / 2];
+    const maskRows = new Set([...runs.b, ...runs.c].filter((_, n) => n % 2 === 0).map((k) => Math.floor(k / nx))).size;
     this.memoryBytes = mediaMemoryBytes({
       nx, ny, cells: t.layer, steps: scenario.steps, probes: layout.probes.length,
       dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
       polarization: t.te ? 'TEz' : 'TMz', stateSlots: t.slots, poleRecords: t.poles.length, patches: counts,
-      poolSlots: t.poolSlots, sourceCorrections: t.sourceStates.length,
+      poolSlots: t.poolSlots, sourceCorrections: t.sourceStates.length, pecRuns: runCounts, maskRows,
     });
     if (this.memoryBytes > WASM32_LIMIT_BYTES) {
       throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
     }
     const engine = instantiateMedia(module);
     const claimed = engine.allocate(nx, ny, t.layer, scenario.steps, layout.probes.length, points, frequencies.length,
-      options.fullGridFrequency !== undefined ? 1 : 0, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length);
+      options.fullGridFrequency !== undefined ? 1 : 0, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length,
+      ...runCounts, maskRows);
     if (claimed === 0) {
       throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
     }
@@ -344,20 +377,20 @@ export class MediaSimulation {
       poleTable.fill(p.k2, 16 * n + 8, 16 * n + 12);
       poleTable.fill(p.k3, 16 * n + 12, 16 * n + 16);
     });
-    const blocks = [[PTR.patchesA, PTR.rowStartA, t.patches.a], [PTR.patchesB, PTR.rowStartB, t.patches.b], [PTR.patchesC, PTR.rowStartC, t.patches.c]] as const;
-    for (const [records, starts, list] of blocks) {
-      const ints = this.i32(records, 12 * list.length);
-      const floats = this.f32(records, 12 * list.length);
+    const blocks = [[PTR.patchesA, PTR.rowStartA, records.a], [PTR.patchesB, PTR.rowStartB, records.b], [PTR.patchesC, PTR.rowStartC, records.c]] as const;
+    for (const [at, starts, list] of blocks) {
+      const ints = this.i32(at, 12 * list.length);
+      const floats = this.f32(at, 12 * list.length);
       list.forEach((p, n) => {
         ints.set([p.k, p.kind, p.poleFirst, p.poleCount, p.state], 12 * n);
         floats.set(p.coefficients, 12 * n + 8);
       });
-      const rowStart = this.i32(starts, ny + 1);
-      let p = 0;
-      for (let j = 0; j <= ny; j++) {
-        while (p < list.length && list[p].k < j * nx) p++;
-        rowStart[j] = p;
-      }
+      this.i32(starts, ny + 1).set(rowStarts(list.map((p) => p.k), nx, ny));
+    }
+    const pec = [[PTR.pecRunsA, PTR.pecStartA, runs.a], [PTR.pecRunsB, PTR.pecStartB, runs.b], [PTR.pecRunsC, PTR.pecStartC, runs.c]] as const;
+    for (const [at, starts, list] of pec) {
+      this.i32(at, list.length).set(list);
+      this.i32(starts, ny + 1).set(rowStarts(list.filter((_, n) => n % 2 === 0), nx, ny));
     }
     const corrections = t.sourceStates.length;
     const correctionAddresses = this.i32(PTR.sourceCorrections, corrections);

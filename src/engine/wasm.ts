@@ -22,6 +22,7 @@ export interface MediaExports {
   allocate(
     nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number,
     polarization: number, slots: number, poles: number, patchA: number, patchB: number, patchC: number, poolSlots: number, corrections: number,
+    runsA: number, runsB: number, runsC: number, maskRows: number,
   ): number;
   setCoefficients(
     caA: number, cbxA: number, cbyA: number, cqA: number, caB: number, cbB: number, cqB: number,

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { MediaPlainKernel } from '../../src/engine/media-plain-kernel.ts';
 import { MediaSimulation, mediaTables } from '../../src/engine/media-simulation.ts';
-import { mediaScenario, patchedMap, TEST_MEDIA } from '../fixtures/media.ts';
+import { mediaScenario, patchedMap, pecMap, TEST_MEDIA } from '../fixtures/media.ts';
 
 // The plain-TypeScript kernel rounds every operation to float32 (Math.fround) in the
 // engine's order, so its fields must equal the engine's bit for bit: IEEE 754 single
@@ -30,10 +30,12 @@ describe('media engine against the plain-TypeScript kernel of the same scheme', 
 
   for (const polarization of ['TMz', 'TEz'] as const) {
     for (const medium of Object.keys(TEST_MEDIA)) {
-      it(`${polarization}, ${medium}, with and without patches: a, b and c bit for bit after 250 steps`, async () => {
-        for (const [nx, ny, cells, patched] of [[64, 52, 10, false], [57, 45, 6, true], [37, 41, 0, true]] as const) {
+      it(`${polarization}, ${medium}, without patches, with patches of every kind and with PEC only: a, b and c bit for bit after 250 steps`, async () => {
+        const shapes = [[64, 52, 10, undefined], [57, 45, 6, patchedMap], [37, 41, 0, patchedMap], [61, 52, 10, pecMap]] as const;
+        for (const [nx, ny, cells, make] of shapes) {
+          const patched = make !== undefined;
           const s = scenarioFor(medium, polarization, nx, ny, cells);
-          const map = patched ? patchedMap(polarization, TEST_MEDIA[medium], nx, 15, 15) : undefined;
+          const map = make ? make(polarization, TEST_MEDIA[medium], nx, 15, 15) : undefined;
           const sim = await MediaSimulation.create(s, {}, map);
           const plain = MediaPlainKernel.fromScenario(s, map);
           // Two batches of uneven length: the engine's batch boundary must not matter.

@@ -3,7 +3,7 @@ import type { MaterialMap } from '../../src/engine/material-map.ts';
 import { MediaSimulation } from '../../src/engine/media-simulation.ts';
 import { loadMediaModule } from '../../src/engine/wasm.ts';
 import type { Polarization, Scenario } from '../../src/scenario/types.ts';
-import { mediaScenario, patchedMap, TEST_MEDIA } from '../fixtures/media.ts';
+import { mediaScenario, patchedMap, pecMap, TEST_MEDIA } from '../fixtures/media.ts';
 
 // The release media engine runs its rows on f32x4 vectors, the scalar build (asconfig target
 // "media-scalar") the same source node by node. IEEE 754 single-precision add, subtract and
@@ -100,10 +100,10 @@ describe('media engine: SIMD build against the scalar build', () => {
         }
       });
 
-      it(`${polarization}, ${medium}, with patches of every kind: agree bit for bit`, () => {
-        for (const [nx, ny, cells] of [[64, 48, 10], [57, 45, 0]] as const) {
+      it(`${polarization}, ${medium}, with patches of every kind, and with PEC only: agree bit for bit`, () => {
+        for (const [nx, ny, cells, make] of [[64, 48, 10, patchedMap], [57, 45, 0, patchedMap], [61, 48, 10, pecMap], [57, 45, 0, pecMap]] as const) {
           const s = fullScenario(nx, ny, cells, medium, polarization);
-          const map = patchedMap(polarization, TEST_MEDIA[medium], nx, 20, 14);
+          const map = make(polarization, TEST_MEDIA[medium], nx, 20, 14);
           const a = runOn(simd, s, map);
           const b = runOn(scalar, s, map);
           expect(a.nonzero).toBeGreaterThan((nx * ny) / 4); // common practice, no source
