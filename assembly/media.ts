@@ -154,6 +154,8 @@ let pecStartA: usize = 0; let pecStartB: usize = 0; let pecStartC: usize = 0;
 let maskRowCount: i32 = 0;
 let maskRowOf: usize = 0;
 let maskRows: usize = 0;
+// Per mask row, the columns its PEC points span, widened to whole vectors: [first, end).
+let maskSpans: usize = 0;
 let masksReady = false;
 
 let source: usize = 0; // f64 per step: I or M at (n+½)dt
@@ -250,6 +252,7 @@ export function allocate(
   maskRowCount = maskRowsIn;
   maskRowOf = claim(<usize>ny << 2);
   maskRows = claim(<usize>maskRowsIn * <usize>nx << 3);
+  maskSpans = claim(<usize>maskRowsIn << 3);
   masksReady = false;
   source = claim(<usize>steps << 3);
   probeIndex = claim(<usize>probes << 2);
@@ -389,6 +392,8 @@ function prepareMasks(): void {
     if (!any) continue;
     const row = maskRows + (<usize>next * <usize>nx << 3);
     for (let i = 0; i < 2 * nx; i++) store<i32>(row + (<usize>i << 2), -1);
+    let first = nx;
+    let end = 0;
     for (let pass = 0; pass < 2; pass++) {
       const runs = pass == 0 ? pecRunsB : pecRunsC;
       const starts = pass == 0 ? pecStartB : pecStartC;
@@ -397,8 +402,12 @@ function prepareMasks(): void {
         const i0 = load<i32>(runs + (<usize>r << 3)) - j * nx;
         const length = load<i32>(runs + (<usize>r << 3), 4);
         for (let i = i0; i < i0 + length; i++) store<i32>(base + (<usize>i << 2), 0);
+        if (i0 < first) first = i0;
+        if (i0 + length > end) end = i0 + length;
       }
     }
+    store<i32>(maskSpans + (<usize>next << 3), first & ~3);
+    store<i32>(maskSpans + (<usize>next << 3), (end + 3) & ~3, 4);
     next++;
   }
   masksReady = true;
@@ -1134,14 +1143,27 @@ function fusedTEManyMasked(j: i32, i0: i32, i1: i32): void { fusedSeg(j, i0, i1,
 // the row has PEC b or c points (then a one-pole background takes the loop over the pole
 // table, which does the same operations).
 function fusedRange(j: i32, i0: i32, i1: i32): void {
-  if (maskRowCount > 0 && i32At(maskRowOf, j) >= 0) {
-    if (te) {
-      if (bgMode == NONE) fusedTENoneMasked(j, i0, i1); else fusedTEManyMasked(j, i0, i1);
-    } else {
-      if (bgMode == NONE) fusedTMNoneMasked(j, i0, i1); else fusedTMManyMasked(j, i0, i1);
+  const m = maskRowCount > 0 ? i32At(maskRowOf, j) : -1;
+  if (m >= 0) {
+    // the masked loop over the columns the PEC points span, the plain one either side
+    const m0 = max(i0, load<i32>(maskSpans + (<usize>m << 3)));
+    const m1 = min(i1, load<i32>(maskSpans + (<usize>m << 3), 4));
+    if (m0 < m1) {
+      fusedUnmasked(j, i0, m0);
+      if (te) {
+        if (bgMode == NONE) fusedTENoneMasked(j, m0, m1); else fusedTEManyMasked(j, m0, m1);
+      } else {
+        if (bgMode == NONE) fusedTMNoneMasked(j, m0, m1); else fusedTMManyMasked(j, m0, m1);
+      }
+      fusedUnmasked(j, m1, i1);
+      return;
     }
-    return;
   }
+  fusedUnmasked(j, i0, i1);
+}
+
+function fusedUnmasked(j: i32, i0: i32, i1: i32): void {
+  if (i0 >= i1) return;
   if (te) {
     switch (bgMode) {
       case NONE: fusedTENone(j, i0, i1); break;

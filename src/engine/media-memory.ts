@@ -31,7 +31,8 @@ export interface MediaMemoryInput extends MemoryInput {
  * component its patch records (48 bytes each), row starts (an int32 per row and one more)
  * and one float32 of scratch per patch; the patch state pool (float32); the addresses of
  * the source point's Debye states (int32); per component its PEC runs (two int32 each) and
- * their row starts; the mask row of each row (int32) and the mask rows (2·nx int32 each);
+ * their row starts; the mask row of each row (int32), the mask rows (2·nx int32 each) and
+ * the column span of each (two int32);
  * then source table, probe series, running DFTs and the optional full-grid DFT as in the
  * lossless engine. The engine's own figure can
  * exceed this by at most 63 bytes (alignment of the first block).
@@ -65,7 +66,7 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     m.sourceCorrections * 4,
     m.pecRuns[0] * 8, m.pecRuns[1] * 8, m.pecRuns[2] * 8,
     (m.ny + 1) * 4, (m.ny + 1) * 4, (m.ny + 1) * 4,
-    m.ny * 4, m.maskRows * m.nx * 8,
+    m.ny * 4, m.maskRows * m.nx * 8, m.maskRows * 8,
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
