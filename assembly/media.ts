@@ -556,7 +556,7 @@ function prepareStripCoefficients(): void {
     let pB = b + (<usize>(k0 + i) << 2);
     let pPsi = psiY + (<usize>psiIndex(r, rowVectors, i0) << 2);
     let pS = statesB + stateOffset(j, i0);
-    const sStep = <usize>bgSlots << 4;
+    const sStep: usize = mode == LORENTZ ? 32 : mode == DRUDE || mode == DEBYE ? 16 : <usize>bgSlots << 4;
     const ca = v128.load(coefficientVectors, V_CAB);
     const cb = v128.load(coefficientVectors, V_CBB);
     const cq = v128.load(coefficientVectors, V_CQB);
@@ -610,7 +610,7 @@ function prepareStripCoefficients(): void {
     let pCoef = stripCoefficients + <usize>(c0 >> 2) * STRIP_BYTES;
     let pPsi = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
     let pS = statesC + stateOffset(j, i0);
-    const sStep = <usize>bgSlots << 4;
+    const sStep: usize = mode == LORENTZ ? 32 : mode == DRUDE || mode == DEBYE ? 16 : <usize>bgSlots << 4;
     const ca = v128.load(coefficientVectors, V_CAC);
     const cb = v128.load(coefficientVectors, V_CBC);
     const cq = v128.load(coefficientVectors, V_CQC);
@@ -670,7 +670,7 @@ function prepareStripCoefficients(): void {
     let pPsiX = psiX + (<usize>psiIndex(j, stripVectors, c0) << 2);
     let pPsiY = psiY + (<usize>psiIndex(r, rowVectors, i0) << 2);
     let pS = statesA + stateOffset(j, i0);
-    const sStep = <usize>bgSlots << 4;
+    const sStep: usize = mode == LORENTZ ? 32 : mode == DRUDE || mode == DEBYE ? 16 : <usize>bgSlots << 4;
     const ca = v128.load(coefficientVectors, V_CAA);
     const cbx = v128.load(coefficientVectors, V_CBXA);
     const cby = v128.load(coefficientVectors, V_CBYA);
@@ -898,7 +898,7 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     let pSA = statesA + so;
     let pSB = statesB + so;
     let pSC = statesC + so;
-    const sStep = <usize>bgSlots << 4;
+    const sStep: usize = mode == LORENTZ ? 32 : mode == DRUDE || mode == DEBYE ? 16 : <usize>bgSlots << 4;
     let a0 = v128.load(pA);
     let cLeft = v128.load(pC - 16);
     const whole = (i1 - i) & ~3;
@@ -1010,7 +1010,7 @@ function cWalls(j: i32, i0: i32, i1: i32): void {
     let pSA = statesA + so;
     let pSB = statesB + so;
     let pSC = statesC + so;
-    const sStep = <usize>bgSlots << 4;
+    const sStep: usize = mode == LORENTZ ? 32 : mode == DRUDE || mode == DEBYE ? 16 : <usize>bgSlots << 4;
     let aHere = v128.load(pA);
     let cLeft = v128.load(pC - 16);
     for (; i + 4 <= i1; i += 4) {
