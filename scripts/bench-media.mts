@@ -3,9 +3,10 @@
 // bench` (square 1 mm cells, S = 0.5, 10-cell CPML, a 15 GHz pulse in the middle) with the
 // background medium swapped, plus a PEC cylinder of radius n/10 cells; and the bytes per
 // cell the extra arrays take, from memoryBytes. Every variant is stepped 200 steps first,
-// then timed in short alternating runs (wall clock): the median, and the best run, which is
-// what the machine gives when nothing else runs. Not a timed test: run it on a quiet
-// machine (check `uptime`).
+// then timed in short alternating runs by this process's CPU time (so that time spent
+// waiting for a core is not counted): the median, and the best run, which is closest to what
+// the machine gives when nothing else runs. Not a timed test: run it on a quiet machine
+// (check `uptime`); under load, caches shared with other processes still slow every run.
 // Run: npx tsx scripts/bench-media.mts [--sizes 256,1024] [--runs 30]
 import { benchScenario } from '../src/engine/bench-scenario.ts';
 import type { ComponentPatch, MaterialMap } from '../src/engine/material-map.ts';
@@ -58,7 +59,10 @@ function cylinder(n: number, polarization: Polarization, medium: Medium): Materi
   return { polarization, background: medium, a, b, c, nodesPerObject: [a.length + b.length + c.length] };
 }
 
-const now = () => performance.now() / 1e3;
+const now = () => {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1e6;
+};
 const median = (xs: number[]) => {
   const s = [...xs].sort((p, q) => p - q);
   const m = s.length >> 1;
@@ -70,8 +74,8 @@ const media = await loadMediaModule();
 const os = await import('node:os');
 console.log(`media engine benchmark: ${runs} alternating runs per variant; load average ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
 for (const n of sizes) {
-  // About 0.03 s a run at 2000 Mcells/s.
-  const steps = Math.max(4, Math.round((0.03 * 2e9) / (n * n)));
+  // About 0.06 s a run at 2000 Mcells/s.
+  const steps = Math.max(4, Math.round((0.06 * 2e9) / (n * n)));
   const total = 200 + (runs + 1) * steps;
   const sims = variants.map((v) => {
     const s: Scenario = { ...benchScenario(n, total), medium: v.medium, ...(v.polarization ? { polarization: v.polarization } : {}) };

@@ -31,11 +31,10 @@ export interface MediaMemoryInput extends MemoryInput {
  * component its patch records (48 bytes each), row starts (an int32 per row and one more)
  * and one float32 of scratch per patch; the patch state pool (float32); the addresses of
  * the source point's Debye states (int32); per component its PEC runs (two int32 each) and
- * their row starts; the mask row of each row (int32), the mask rows (2·nx int32 each) and
- * the column span of each (two int32);
- * then source table, probe series, running DFTs and the optional full-grid DFT as in the
- * lossless engine. The engine's own figure can
- * exceed this by at most 63 bytes (alignment of the first block).
+ * their row starts; the mask row number of each row (int32), the mask rows (2·nx int32
+ * each) and the column span of each (two int32); then source table, probe series, running
+ * DFTs and the optional full-grid DFT as in the lossless engine. The engine's own figure
+ * can exceed this by at most 63 bytes (alignment of the first block).
  *
  * @example
  * mediaMemoryBytes({ nx: 100, ny: 100, cells: 10, steps: 500, probes: 1, dftPoints: 1, frequencies: 1,
