@@ -1,5 +1,5 @@
 /**
- * The one loader of build/engine.wasm for Node, the page and its workers. The module is
+ * The one loader of build/engine.wasm (and build/media.wasm) for Node, the page and its workers. The module is
  * compiled once per realm; each simulation gets its own instance (and so its own memory,
  * released when the instance is dropped).
  */
@@ -16,8 +16,28 @@ export interface EngineExports {
   streamFields(passes: number): void;
 }
 
+/** Exports of build/media.wasm (assembly/media.ts): lossy and dispersive media, TMz or TEz, objects. */
+export interface MediaExports {
+  memory: WebAssembly.Memory;
+  allocate(
+    nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number,
+    polarization: number, slots: number, poles: number, patchA: number, patchB: number, patchC: number, poolSlots: number, corrections: number,
+    runsA: number, runsB: number, runsC: number, maskRows: number,
+  ): number;
+  setCoefficients(
+    caA: number, cbxA: number, cbyA: number, cqA: number, caB: number, cbB: number, cqB: number,
+    caC: number, cbC: number, cqC: number, backgroundPoles: number, sourceScale: number, sourceNode: number, fullOmegaDt: number,
+  ): void;
+  pointerTo(which: number): number;
+  stepsDone(): number;
+  step(count: number): void;
+  maxAbsA(): number;
+}
+
 const engineUrl = new URL('../../build/engine.wasm', import.meta.url);
+const mediaUrl = new URL('../../build/media.wasm', import.meta.url);
 let compiled: Promise<WebAssembly.Module> | undefined;
+let compiledMedia: Promise<WebAssembly.Module> | undefined;
 
 async function compileFrom(url: URL): Promise<WebAssembly.Module> {
   if (url.protocol === 'file:') {
@@ -44,4 +64,17 @@ export function loadEngineModule(url: URL = engineUrl): Promise<WebAssembly.Modu
 export function instantiateEngine(module: WebAssembly.Module): EngineExports {
   const instance = new WebAssembly.Instance(module, {});
   return instance.exports as unknown as EngineExports;
+}
+
+/** The compiled media engine module (cached). Pass another URL to load a variant build. */
+export function loadMediaModule(url: URL = mediaUrl): Promise<WebAssembly.Module> {
+  if (url !== mediaUrl) return compileFrom(url);
+  compiledMedia ??= compileFrom(mediaUrl);
+  return compiledMedia;
+}
+
+/** A fresh media engine instance with its own memory. */
+export function instantiateMedia(module: WebAssembly.Module): MediaExports {
+  const instance = new WebAssembly.Instance(module, {});
+  return instance.exports as unknown as MediaExports;
 }

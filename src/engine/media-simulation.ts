@@ -1,0 +1,538 @@
+import { EPS0, MU0 } from '../scenario/constants.ts';
+import { layoutOf, type Layout } from '../scenario/layout.ts';
+import type { Medium, Pole, Scenario } from '../scenario/types.ts';
+import { cpmlAxisTables } from './cpml-profile.ts';
+import type { ComponentPatch, MaterialMap } from './material-map.ts';
+import { mediaMemoryBytes } from './media-memory.ts';
+import type { Complex, SimulationOptions } from './simulation.ts';
+import { waveformValue } from './waveforms.ts';
+import { instantiateMedia, loadMediaModule, type MediaExports } from './wasm.ts';
+
+/** The most memory one engine instance can address (wasm32), less a margin for its own data. */
+const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
+
+/** Pole kinds and patch kinds as assembly/media.ts numbers them. */
+const POLE_KIND = { drude: 1, lorentz: 2, debye: 3 } as const;
+export const PATCH_KIND = { pec: 0, medium: 1, edge: 2, cell: 3 } as const;
+
+/** One record of the engine's pole table: its kind and three constants (see assembly/media.ts). */
+export interface PoleRecord { kind: 1 | 2 | 3; k1: number; k2: number; k3: number }
+
+/**
+ * One patched point as the engine takes it: index k, kind, its range of the pole table,
+ * its first state value in the patch pool, and four coefficients (meaning by kind, see
+ * assembly/media.ts).
+ */
+export interface PatchRecord {
+  k: number; kind: 0 | 1 | 2 | 3; poleFirst: number; poleCount: number; state: number;
+  coefficients: [number, number, number, number];
+}
+
+/** Where a Debye state of the source point lives: the background block of `a` or the patch pool (float index). */
+export interface StateLocation { block: 'background' | 'pool'; index: number }
+
+/**
+ * Every number the media engine needs, in double precision (the engine and the plain
+ * kernel round them to float32): coefficients of the three components, the pole table
+ * (background poles first), the patches, the source and the CPML tables.
+ */
+export interface MediaTables {
+  nx: number; ny: number; layer: number; dx: number; dy: number; dt: number;
+  te: boolean;
+  a: { ca: number; cbx: number; cby: number; cq: number };
+  b: { ca: number; cb: number; cq: number };
+  c: { ca: number; cb: number; cq: number };
+  poles: PoleRecord[];
+  backgroundPoles: number;
+  /** Background state values per node of each electric component. */
+  slots: number;
+  patches: { a: PatchRecord[]; b: PatchRecord[]; c: PatchRecord[] };
+  poolSlots: number;
+  sourceIndex: number;
+  sourceScale: number;
+  sourceStates: StateLocation[];
+  /** I (TMz, A) or M (TEz, V) at (n+½)·dt for n = 0..steps−1. */
+  current: Float64Array;
+  x: ReturnType<typeof cpmlAxisTables>;
+  y: ReturnType<typeof cpmlAxisTables>;
+}
+
+/**
+ * State values a pole list needs per node: one per Drude or Debye pole, two per Lorentz
+ * pole (P^n and P^{n−1} of its second-order update).
+ *
+ * @example
+ * stateSlots([{ kind: 'lorentz', deltaEps: 1, omega0: 1e11, delta: 1e9 }]); // 2
+ */
+export function stateSlots(poles: Pole[] | undefined): number {
+  return (poles ?? []).reduce((n, p) => n + (p.kind === 'lorentz' ? 2 : 1), 0);
+}
+
+/**
+ * Update coefficients of an electric component in a medium at time step dt, from the
+ * auxiliary-differential-equation updates (README "Materials"; Taflove & Hagness,
+ * Computational Electrodynamics, 3rd ed., ch. 9, from memory):
+ * D = ε∞ + σ·dt/2 + Σ ε0·κ'(Debye) (F/m), ca = (ε∞ − σ·dt/2 − Σ ε0·κ')/D, cq = ε0/D, and
+ * cb = dt/D, which the callers divide by a cell size as dt/(D·Δ); and the pole records
+ * for the scaled states of assembly/media.ts: Drude Ĵ = J·dt/ε0 (k1 = (1 − γdt/2)/(1 + γdt/2),
+ * k2 = ωp²dt²/(1 + γdt/2)), Lorentz P̂ = P/ε0 (k1 = (2 − ω0²dt²)/(1 + δdt),
+ * k2 = −(1 − δdt)/(1 + δdt), k3 = Δε·ω0²dt²/(1 + δdt)), Debye Ŝ = P/(ε0κ') with
+ * κ' = (Δε/2)/(τ/dt + ½) (k1 = β = (τ/dt − ½)/(τ/dt + ½), k3 = (β − 1)·κ').
+ * Units: σ in S/m, τ in s, ωp, γ, ω0, δ in rad/s (1/s), dt in s.
+ *
+ * @example
+ * electricCoefficients({ epsR: 4 }, 1e-12).ca; // 1
+ */
+export function electricCoefficients(m: Medium, dt: number): { ca: number; denominator: number; cq: number; poles: PoleRecord[] } {
+  const eps = EPS0 * m.epsR;
+  const halfSigma = ((m.sigma ?? 0) * dt) / 2;
+  let kappaSum = 0;
+  const poles: PoleRecord[] = (m.poles ?? []).map((p): PoleRecord => {
+    if (p.kind === 'debye') {
+      const r = p.tau / dt + 0.5;
+      kappaSum += (EPS0 * (p.deltaEps / 2)) / r;
+      return { kind: POLE_KIND.debye, k1: (p.tau / dt - 0.5) / r, k2: 0, k3: -(p.deltaEps / 2) / (r * r) };
+    }
+    if (p.kind === 'drude') {
+      const g = (p.gamma * dt) / 2;
+      return { kind: POLE_KIND.drude, k1: (1 - g) / (1 + g), k2: (p.omegaP * p.omegaP * dt * dt) / (1 + g), k3: 0 };
+    }
+    const d = p.delta * dt;
+    const w = p.omega0 * p.omega0 * dt * dt;
+    return { kind: POLE_KIND.lorentz, k1: (2 - w) / (1 + d), k2: -(1 - d) / (1 + d), k3: (p.deltaEps * w) / (1 + d) };
+  });
+  const denominator = eps + halfSigma + kappaSum;
+  return { ca: (eps - halfSigma - kappaSum) / denominator, denominator, cq: EPS0 / denominator, poles };
+}
+
+/**
+ * Float index of state `slot` of node (i, j) in a background state block of assembly/media.ts:
+ * per row ⌈nx/4⌉ vectors of four columns, per vector `slots` groups of four lanes.
+ *
+ * @example
+ * backgroundStateIndex(10, 2, 5, 1, 1); // ((1·3 + 1)·2 + 1)·4 + 1 = 37
+ */
+export function backgroundStateIndex(nx: number, slots: number, i: number, j: number, slot: number): number {
+  const rowVectors = Math.ceil(nx / 4);
+  return (j * rowVectors + (i >> 2)) * slots * 4 + slot * 4 + (i & 3);
+}
+
+/**
+ * The tables of one run from a scenario and a material map (without a map: the scenario's
+ * medium and polarization, no patches). The time step is the scenario's (its medium is the
+ * map's background). Throws when the map's polarization is not the scenario's, when a
+ * patch does not suit its component and polarization, when patches are not sorted by k,
+ * or when a patch lies where its component takes CPML terms or on the outer wall (objects
+ * must stay out of the absorber).
+ *
+ * @example
+ * mediaTables(scenario).a.ca; // 1 for a lossless TMz scenario
+ */
+export function mediaTables(scenario: Scenario, map?: MaterialMap): MediaTables {
+  const layout = layoutOf(scenario);
+  const { nx, ny, dx, dy, dt } = layout;
+  const L = scenario.absorber.cells;
+  const background = map?.background ?? scenario.medium;
+  const polarization = scenario.polarization ?? 'TMz';
+  if (map && map.polarization !== polarization) {
+    throw new Error(`material map: built for ${map.polarization}, but the scenario runs ${polarization}`);
+  }
+  const te = polarization === 'TEz';
+  const medium = electricCoefficients(background, dt);
+  const poles: PoleRecord[] = [...medium.poles];
+  const poleSets = new Map<string, number>();
+  const slots = stateSlots(background.poles);
+  let poolSlots = 0;
+
+  // For the lossless medium D = ε and these are dt/(ε·dx), dt/(ε·dy), as the lossless engine has them.
+  const D = medium.denominator;
+  const a = te
+    ? { ca: 1, cbx: dt / (MU0 * dx), cby: dt / (MU0 * dy), cq: 0 }
+    : { ca: medium.ca, cbx: dt / (D * dx), cby: dt / (D * dy), cq: medium.cq };
+  const b = te ? { ca: medium.ca, cb: dt / (D * dy), cq: medium.cq } : { ca: 1, cb: dt / (MU0 * dy), cq: 0 };
+  const c = te ? { ca: medium.ca, cb: dt / (D * dx), cq: medium.cq } : { ca: 1, cb: dt / (MU0 * dx), cq: 0 };
+
+  const poleSetOf = (m: Medium): { first: number; count: number } => {
+    const list = m.poles ?? [];
+    if (list.length === 0) return { first: 0, count: 0 };
+    const key = JSON.stringify(list);
+    let first = poleSets.get(key);
+    if (first === undefined) {
+      first = poles.length;
+      poles.push(...electricCoefficients({ epsR: 1, poles: list }, dt).poles);
+      poleSets.set(key, first);
+    }
+    return { first, count: list.length };
+  };
+
+  // Bounds of the points a patch may take per component: no CPML term, not on the outer wall.
+  const edge = Math.max(L, 1);
+  const bounds = {
+    a: [edge, nx - 1 - edge, edge, ny - 1 - edge],
+    b: [edge, nx - 1 - edge, edge, ny - 2 - edge],
+    c: [edge, nx - 2 - edge, edge, ny - 1 - edge],
+  } as const;
+
+  const records = (name: 'a' | 'b' | 'c', list: ComponentPatch[]): PatchRecord[] => {
+    let previous = -1;
+    return list.map((patch): PatchRecord => {
+      const { k } = patch;
+      const i = k % nx;
+      const j = Math.floor(k / nx);
+      const [i0, i1, j0, j1] = bounds[name];
+      if (!Number.isInteger(k) || k <= previous) throw new Error(`material map: ${name} patches must be sorted by k, each k once (k = ${k})`);
+      previous = k;
+      if (i < i0 || i > i1 || j < j0 || j > j1) {
+        throw new Error(`material map: ${name} patch at (${i}, ${j}) lies in the absorber or on the outer wall; objects must stay inside ${i0} ≤ i ≤ ${i1}, ${j0} ≤ j ≤ ${j1}`);
+      }
+      const base = { k, poleFirst: 0, poleCount: 0, state: 0 };
+      const electric = te ? name !== 'a' : name === 'a';
+      if (patch.kind === 'pec') return { ...base, kind: PATCH_KIND.pec, coefficients: [0, 0, 0, 0] };
+      if (patch.kind === 'medium') {
+        if (!electric) throw new Error(`material map: a medium patch on ${name} in ${te ? 'TEz' : 'TMz'}, which is a magnetic component (μ = μ0 everywhere)`);
+        const m = electricCoefficients(patch.medium, dt);
+        const d = m.denominator;
+        const set = poleSetOf(patch.medium);
+        const state = poolSlots;
+        poolSlots += stateSlots(patch.medium.poles);
+        const coefficients: [number, number, number, number] = name === 'a'
+          ? [m.ca, dt / (d * dx), dt / (d * dy), m.cq]
+          : [m.ca, dt / (d * (name === 'b' ? dy : dx)), 0, m.cq];
+        return { k, kind: PATCH_KIND.medium, poleFirst: set.first, poleCount: set.count, state, coefficients };
+      }
+      if (electric) throw new Error(`material map: a conformal patch on ${name} in ${te ? 'TEz' : 'TMz'}, which is an electric component`);
+      if (!te) {
+        const f = patch.lengthFraction;
+        if (f === undefined || !(f > 0 && f <= 1)) throw new Error(`material map: conformal ${name} patch at k = ${k} needs 0 < lengthFraction ≤ 1, got ${f}`);
+        return { ...base, kind: PATCH_KIND.edge, coefficients: [dt / (MU0 * f * (name === 'b' ? dy : dx)), 0, 0, 0] };
+      }
+      const area = patch.areaFraction;
+      const edges = patch.edgeFractions;
+      if (area === undefined || !(area > 0 && area <= 1) || !edges || !edges.every((l) => l >= 0 && l <= 1)) {
+        throw new Error(`material map: conformal a patch at k = ${k} needs 0 < areaFraction ≤ 1 and four edge fractions in [0, 1]`);
+      }
+      const w = dt / (MU0 * area);
+      return { ...base, kind: PATCH_KIND.cell, coefficients: [(w * edges[0]) / dx, (w * edges[1]) / dx, (w * edges[2]) / dy, (w * edges[3]) / dy] };
+    });
+  };
+  const patches = { a: records('a', map?.a ?? []), b: records('b', map?.b ?? []), c: records('c', map?.c ?? []) };
+
+  // The source: J = I/(dx·dy) (TMz) or M/(dx·dy) (TEz) with the cb of the point's own update.
+  const sourceIndex = layout.source.j * nx + layout.source.i;
+  const sourcePatch = (map?.a ?? []).find((p) => p.k === sourceIndex);
+  const sourceRecord = patches.a.find((p) => p.k === sourceIndex);
+  const sourceStates: StateLocation[] = [];
+  const debyeStates = (records: PoleRecord[], at: (slot: number) => StateLocation['index'], block: StateLocation['block']) => {
+    let slot = 0;
+    for (const record of records) {
+      if (record.kind === POLE_KIND.debye) sourceStates.push({ block, index: at(slot) });
+      slot += record.kind === POLE_KIND.lorentz ? 2 : 1;
+    }
+  };
+  let sourceScale: number;
+  if (sourcePatch?.kind === 'pec') {
+    sourceScale = 0;
+  } else if (te) {
+    const area = sourcePatch?.kind === 'conformal' ? (sourcePatch.areaFraction as number) : 1;
+    sourceScale = dt / (MU0 * area * dx * dy);
+  } else if (sourcePatch?.kind === 'medium' && sourceRecord) {
+    const m = electricCoefficients(sourcePatch.medium, dt);
+    sourceScale = dt / (m.denominator * dx * dy);
+    debyeStates(m.poles, (slot) => sourceRecord.state + slot, 'pool');
+  } else {
+    sourceScale = dt / (D * dx * dy);
+    debyeStates(medium.poles, (slot) => backgroundStateIndex(nx, slots, layout.source.i, layout.source.j, slot), 'background');
+  }
+
+  const current = new Float64Array(scenario.steps);
+  for (let n = 0; n < scenario.steps; n++) {
+    current[n] = waveformValue(scenario.source.waveform, scenario.source.amplitude, (n + 0.5) * dt);
+  }
+  return {
+    nx, ny, layer: L, dx, dy, dt, te, a, b, c, poles, backgroundPoles: medium.poles.length, slots,
+    patches, poolSlots, sourceIndex, sourceScale, sourceStates, current,
+    x: cpmlAxisTables(nx, scenario.absorber, dx, dt, background.epsR),
+    y: cpmlAxisTables(ny, scenario.absorber, dy, dt, background.epsR),
+  };
+}
+
+// Indices of engine buffers, as in assembly/media.ts `pointerTo`.
+const PTR = {
+  a: 0, b: 1, c: 2,
+  bEx: 3, aEx: 4, gEx: 5, bHx: 6, aHx: 7, gHx: 8,
+  bEy: 9, aEy: 10, gEy: 11, bHy: 12, aHy: 13, gHy: 14,
+  source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
+  fullRe: 21, fullIm: 22, poleTable: 26, statesA: 27,
+  patchesA: 30, patchesB: 31, patchesC: 32, rowStartA: 33, rowStartB: 34, rowStartC: 35,
+  patchPool: 36, sourceCorrections: 37, pecRunsA: 38, pecRunsB: 39, pecRunsC: 40, pecStartA: 41, pecStartB: 42, pecStartC: 43,
+} as const;
+
+/** PEC points of one component as runs of consecutive k within a row: [first k, length] pairs. */
+function pecRuns(list: PatchRecord[], nx: number): number[] {
+  const runs: number[] = [];
+  for (const p of list) {
+    if (p.kind !== PATCH_KIND.pec) continue;
+    const last = runs.length - 2;
+    if (last >= 0 && runs[last] + runs[last + 1] === p.k && Math.floor(runs[last] / nx) === Math.floor(p.k / nx)) runs[last + 1]++;
+    else runs.push(p.k, 1);
+  }
+  return runs;
+}
+
+/** Index of the first run (pairs) or record of each row j = 0..ny, for lists sorted by k. */
+function rowStarts(firstKs: number[], nx: number, ny: number): Int32Array {
+  const starts = new Int32Array(ny + 1);
+  let p = 0;
+  for (let j = 0; j <= ny; j++) {
+    while (p < firstKs.length && firstKs[p] < j * nx) p++;
+    starts[j] = p;
+  }
+  return starts;
+}
+
+/**
+ * One FDTD run in lossy or dispersive media, TMz or TEz, with objects given by a material
+ * map: the same interface as {@link Simulation}, with the node field `a` (Ez in TMz, Hz in
+ * TEz) in the place of Ez. `ezView` is a, `hxView` b (Hx, or −Ex in TEz) and `hyView` c
+ * (Hy, or −Ey in TEz); probe series and DFTs are of a. In TEz the source is a magnetic line
+ * current M (V) and the outer wall is a perfect electric conductor half a cell inside the
+ * outermost nodes (tangential E zero there; the outermost Hz nodes stay zero).
+ *
+ * Stability: dt from the Courant number with c∞ = c0/√ε∞ as for a lossless medium; σ and
+ * Debye poles need nothing more. A Drude pole also needs ωp·dt < 2·√ε∞·√(1 − s²) and a
+ * Lorentz pole ω0·dt < 2·√(ε∞(1 − s²)/(εs − ε∞·s²)), with εs = ε∞ + Δε and s the Courant
+ * number over its 2D limit (exact for γ = 0, δ = 0; damping only helps): from the scheme's
+ * dispersion relation μ0ε0ε̃r(ω)Ω² = K², all roots Ω² of which must lie in [0, 4/dt²) for
+ * every grid wavenumber K up to its largest, K²c∞²dt² = 4s² (von Neumann analysis).
+ *
+ * @example
+ * const sim = await MediaSimulation.create({ ...scenario, medium: { epsR: 2, sigma: 0.01 } });
+ * sim.run();
+ * sim.probeDft(0, 0); // [re, im] of Ez at the first probe and frequency
+ */
+export class MediaSimulation {
+  readonly scenario: Scenario;
+  readonly layout: Layout;
+  readonly dt: number;
+  readonly memoryBytes: number;
+  readonly fullGridFrequency: number | undefined;
+  readonly tables: MediaTables;
+  private engine: MediaExports | undefined;
+  private readonly lineOffsets: number[];
+  private readonly pointCount: number;
+
+  /** Loads (once) the media engine module and builds a simulation. */
+  static async create(scenario: Scenario, options: SimulationOptions = {}, map?: MaterialMap): Promise<MediaSimulation> {
+    return new MediaSimulation(await loadMediaModule(), scenario, options, map);
+  }
+
+  constructor(module: WebAssembly.Module, scenario: Scenario, options: SimulationOptions = {}, map?: MaterialMap) {
+    this.scenario = scenario;
+    const layout = (this.layout = layoutOf(scenario));
+    this.dt = layout.dt;
+    const { nx, ny } = layout;
+    const t = (this.tables = mediaTables(scenario, map));
+    this.fullGridFrequency = options.fullGridFrequency;
+    this.lineOffsets = [];
+    let points = layout.probes.length;
+    for (const line of layout.lines) {
+      this.lineOffsets.push(points);
+      points += line.nodes.length;
+    }
+    this.pointCount = points;
+    const frequencies = scenario.frequencies;
+    // PEC points go to the engine as runs, the other patches as records.
+    const records = {
+      a: t.patches.a.filter((p) => p.kind !== PATCH_KIND.pec),
+      b: t.patches.b.filter((p) => p.kind !== PATCH_KIND.pec),
+      c: t.patches.c.filter((p) => p.kind !== PATCH_KIND.pec),
+    };
+    const runs = { a: pecRuns(t.patches.a, nx), b: pecRuns(t.patches.b, nx), c: pecRuns(t.patches.c, nx) };
+    const counts: [number, number, number] = [records.a.length, records.b.length, records.c.length];
+    const runCounts: [number, number, number] = [runs.a.length / 2, runs.b.length / 2, runs.c.length / 2];
+    const maskRows = new Set([...runs.b, ...runs.c].filter((_, n) => n % 2 === 0).map((k) => Math.floor(k / nx))).size;
+    this.memoryBytes = mediaMemoryBytes({
+      nx, ny, cells: t.layer, steps: scenario.steps, probes: layout.probes.length,
+      dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
+      polarization: t.te ? 'TEz' : 'TMz', stateSlots: t.slots, poleRecords: t.poles.length, patches: counts,
+      poolSlots: t.poolSlots, sourceCorrections: t.sourceStates.length, pecRuns: runCounts, maskRows,
+    });
+    if (this.memoryBytes > WASM32_LIMIT_BYTES) {
+      throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
+    }
+    const engine = instantiateMedia(module);
+    const claimed = engine.allocate(nx, ny, t.layer, scenario.steps, layout.probes.length, points, frequencies.length,
+      options.fullGridFrequency !== undefined ? 1 : 0, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length,
+      ...runCounts, maskRows);
+    if (claimed === 0) {
+      throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
+    }
+    this.engine = engine;
+
+    const poleTable = this.f32(PTR.poleTable, 16 * t.poles.length);
+    const poleKinds = this.i32(PTR.poleTable, 16 * t.poles.length);
+    t.poles.forEach((p, n) => {
+      poleKinds[16 * n] = p.kind;
+      poleTable.fill(p.k1, 16 * n + 4, 16 * n + 8);
+      poleTable.fill(p.k2, 16 * n + 8, 16 * n + 12);
+      poleTable.fill(p.k3, 16 * n + 12, 16 * n + 16);
+    });
+    const blocks = [[PTR.patchesA, PTR.rowStartA, records.a], [PTR.patchesB, PTR.rowStartB, records.b], [PTR.patchesC, PTR.rowStartC, records.c]] as const;
+    for (const [at, starts, list] of blocks) {
+      const ints = this.i32(at, 12 * list.length);
+      const floats = this.f32(at, 12 * list.length);
+      list.forEach((p, n) => {
+        ints.set([p.k, p.kind, p.poleFirst, p.poleCount, p.state], 12 * n);
+        floats.set(p.coefficients, 12 * n + 8);
+      });
+      this.i32(starts, ny + 1).set(rowStarts(list.map((p) => p.k), nx, ny));
+    }
+    const pec = [[PTR.pecRunsA, PTR.pecStartA, runs.a], [PTR.pecRunsB, PTR.pecStartB, runs.b], [PTR.pecRunsC, PTR.pecStartC, runs.c]] as const;
+    for (const [at, starts, list] of pec) {
+      this.i32(at, list.length).set(list);
+      this.i32(starts, ny + 1).set(rowStarts(list.filter((_, n) => n % 2 === 0), nx, ny));
+    }
+    const corrections = t.sourceStates.length;
+    const correctionAddresses = this.i32(PTR.sourceCorrections, corrections);
+    t.sourceStates.forEach((s, n) => {
+      correctionAddresses[n] = (engine.pointerTo(s.block === 'pool' ? PTR.patchPool : PTR.statesA) >>> 0) + 4 * s.index;
+    });
+
+    engine.setCoefficients(
+      t.a.ca, t.a.cbx, t.a.cby, t.a.cq, t.b.ca, t.b.cb, t.b.cq, t.c.ca, t.c.cb, t.c.cq,
+      t.backgroundPoles, t.sourceScale, t.sourceIndex,
+      options.fullGridFrequency !== undefined ? 2 * Math.PI * options.fullGridFrequency * this.dt : 0,
+    );
+    const { x, y } = t;
+    this.f32(PTR.bEx, nx).set(x.bE); this.f32(PTR.aEx, nx).set(x.aE); this.f32(PTR.gEx, nx).set(x.gE);
+    this.f32(PTR.bHx, nx).set(x.bH); this.f32(PTR.aHx, nx).set(x.aH); this.f32(PTR.gHx, nx).set(x.gH);
+    this.f32(PTR.bEy, ny).set(y.bE); this.f32(PTR.aEy, ny).set(y.aE); this.f32(PTR.gEy, ny).set(y.gE);
+    this.f32(PTR.bHy, ny).set(y.bH); this.f32(PTR.aHy, ny).set(y.aH); this.f32(PTR.gHy, ny).set(y.gH);
+
+    this.f64(PTR.source, scenario.steps).set(t.current);
+    const probeIndex = this.i32(PTR.probeIndex, layout.probes.length);
+    layout.probes.forEach((p, k) => { probeIndex[k] = p.j * nx + p.i; });
+    const pointIndex = this.i32(PTR.pointIndex, points);
+    layout.probes.forEach((p, k) => { pointIndex[k] = p.j * nx + p.i; });
+    layout.lines.forEach((line, l) => {
+      line.nodes.forEach((node, k) => { pointIndex[this.lineOffsets[l] + k] = node.j * nx + node.i; });
+    });
+    const omegaDt = this.f64(PTR.omegaDt, frequencies.length);
+    frequencies.forEach((f, k) => { omegaDt[k] = 2 * Math.PI * f * this.dt; });
+  }
+
+  private live(): MediaExports {
+    if (!this.engine) throw new Error('simulation has been disposed');
+    return this.engine;
+  }
+  // Addresses are unsigned 32-bit; the raw binding hands them over as signed, so an address
+  // beyond 2 GiB would come out negative without the `>>> 0`.
+  private f32(which: number, length: number): Float32Array {
+    const e = this.live();
+    return new Float32Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
+  }
+  private f64(which: number, length: number): Float64Array {
+    const e = this.live();
+    return new Float64Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
+  }
+  private i32(which: number, length: number): Int32Array {
+    const e = this.live();
+    return new Int32Array(e.memory.buffer, e.pointerTo(which) >>> 0, length);
+  }
+
+  /** Time steps taken so far; samples n = 0..stepsDone of a exist. */
+  get stepsDone(): number {
+    return this.live().stepsDone();
+  }
+
+  /** Steps still to take before the scenario's `steps` is reached. */
+  get stepsLeft(): number {
+    return this.scenario.steps - this.stepsDone;
+  }
+
+  /** Advances up to `count` steps (never beyond the scenario's `steps`); returns steps taken. */
+  step(count: number): number {
+    const n = Math.max(0, Math.min(Math.floor(count), this.stepsLeft));
+    if (n > 0) this.live().step(n);
+    return n;
+  }
+
+  /** Runs to the end in batches, calling `onProgress(done, total)` between batches. */
+  run(onProgress?: (done: number, total: number) => void, batch = 200): void {
+    while (this.stepsLeft > 0) {
+      this.step(batch);
+      onProgress?.(this.stepsDone, this.scenario.steps);
+    }
+  }
+
+  /** Live view of the node field a: Ez (TMz, V/m) or Hz (TEz, A/m); valid until dispose. */
+  ezView(): Float32Array {
+    return this.f32(PTR.a, this.layout.nx * this.layout.ny);
+  }
+  /** Live view of b: Hx (TMz, A/m) or −Ex (TEz, V/m). */
+  hxView(): Float32Array { return this.f32(PTR.b, this.layout.nx * this.layout.ny); }
+  /** Live view of c: Hy (TMz, A/m) or −Ey (TEz, V/m). */
+  hyView(): Float32Array { return this.f32(PTR.c, this.layout.nx * this.layout.ny); }
+
+  /** Largest |a| on the grid (NaN if any node is NaN). */
+  maxAbsEz(): number {
+    return this.live().maxAbsA();
+  }
+
+  /** a at probe `p` for samples n = 0..stepsDone (a copy). */
+  probeSeries(p: number): Float32Array {
+    const length = this.scenario.steps + 1;
+    const all = this.f32(PTR.series, this.layout.probes.length * length);
+    return all.slice(p * length, p * length + this.stepsDone + 1);
+  }
+
+  private dftAt(point: number, f: number): Complex {
+    const d = this.f64(PTR.dft, 2 * this.pointCount * this.scenario.frequencies.length);
+    const k = 2 * (f * this.pointCount + point);
+    return [d[k], d[k + 1]];
+  }
+
+  /** Σ_{n=0..stepsDone} a[n]·e^{−jωn·dt} at probe `p`, frequency index `f`. */
+  probeDft(p: number, f: number): Complex {
+    return this.dftAt(p, f);
+  }
+
+  /** Same running DFT at node `k` of line `l`. */
+  lineDft(l: number, k: number, f: number): Complex {
+    return this.dftAt(this.lineOffsets[l] + k, f);
+  }
+
+  /**
+   * DFT of the injected current (I in TMz, M in TEz) with its half-step timing,
+   * Σ_{n=0..stepsDone−1} I((n+½)dt)·e^{−jω(n+½)dt}, at frequency `freqHz`.
+   */
+  currentDft(freqHz: number): Complex {
+    const current = this.f64(PTR.source, this.scenario.steps);
+    const w = 2 * Math.PI * freqHz * this.dt;
+    let re = 0;
+    let im = 0;
+    const n = this.stepsDone;
+    for (let k = 0; k < n; k++) {
+      const phase = w * (k + 0.5);
+      re += current[k] * Math.cos(phase);
+      im -= current[k] * Math.sin(phase);
+    }
+    return [re, im];
+  }
+
+  /** The full-grid running DFT of a (re, im per node), or undefined when not requested. */
+  fullGridDft(): { re: Float32Array; im: Float32Array } | undefined {
+    if (this.fullGridFrequency === undefined) return undefined;
+    const size = this.layout.nx * this.layout.ny;
+    return { re: this.f32(PTR.fullRe, size), im: this.f32(PTR.fullIm, size) };
+  }
+
+  /** Releases the engine instance and its memory. */
+  dispose(): void {
+    this.engine = undefined;
+  }
+
+  get disposed(): boolean {
+    return this.engine === undefined;
+  }
+}
