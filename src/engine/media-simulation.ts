@@ -3,9 +3,9 @@ import { layoutOf, type Layout } from '../scenario/layout.ts';
 import type { Medium, Pole, Scenario } from '../scenario/types.ts';
 import { cpmlAxisTables } from './cpml-profile.ts';
 import type { ComponentPatch, MaterialMap } from './material-map.ts';
-import { mediaMemoryBytes } from './media-memory.ts';
+import { mediaMemoryBytes } from '../scenario/media-memory.ts';
 import type { Complex, SimulationOptions } from './simulation.ts';
-import { waveformValue } from './waveforms.ts';
+import { waveformValue } from '../scenario/waveforms.ts';
 import { instantiateMedia, loadMediaModule, type MediaExports } from './wasm.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { mediaMemoryBytes, type MediaMemoryInput } from '../../src/engine/media-memory.ts';
+import { mediaMemoryBytes, type MediaMemoryInput } from '../../src/scenario/media-memory.ts';
 import { MediaSimulation, PATCH_KIND } from '../../src/engine/media-simulation.ts';
 import { instantiateMedia, loadMediaModule } from '../../src/engine/wasm.ts';
 import { mediaScenario, patchedMap, TEST_MEDIA } from '../fixtures/media.ts';

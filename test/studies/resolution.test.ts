@@ -68,7 +68,7 @@ describe('resolution study: measured phase lag against the dispersion relation',
   });
 
   it('reports the memory and time of the 12-wavelength project grid at the recommendation', () => {
-    // engine memory estimate of the same sizes (src/engine/memory.ts); common practice, no source
+    // engine memory estimate of the same sizes (src/scenario/memory.ts); common practice, no source
     const rec = study.recommended!;
     const side = 12 * 34 + 1 + 2 * user.absorber.cells;
     expect([rec.project.nx, rec.project.ny]).toEqual([side, side]);

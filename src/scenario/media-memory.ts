@@ -24,7 +24,7 @@ export interface MediaMemoryInput extends MemoryInput {
  * Bytes the media engine (assembly/media.ts) allocates for one simulation, block by block
  * the way its `allocate` claims them, each block starting on a 64-byte line: the update
  * coefficients as vectors (160 bytes); the float32 fields a, b, c (nx·ny each plus 16 spare
- * bytes); the CPML tables and ψ as in the lossless engine (src/engine/memory.ts), the
+ * bytes); the CPML tables and ψ as in the lossless engine (src/scenario/memory.ts), the
  * x-strip tables regrouped with a lane mask (112 bytes per vector of strip columns);
  * background pole states for each electric component (a in TMz, b and c in TEz), ny rows
  * of ⌈nx/4⌉ vectors of 16 bytes per state value; the pole table (64 bytes a pole); per
