@@ -49,7 +49,7 @@ const START_LEVEL = 4; // 15 nodes; the 7-node interpolant inside it gives the f
 const TOP_LEVEL = 6; // 63 nodes, then split
 const ZERO_SPLIT = 0.15;
 const FAST = 8; // a doubling must cut the estimate by this much to be worth repeating
-const HALF_PHASE = 8; // largest phase of e^{jωs} over half a Gauss sub-panel, rad
+const HALF_PHASE = 300; // largest phase of e^{jωs} over half a Gauss sub-panel, rad
 const TAIL_SHARE = 0.1;
 const STOP_WIDTH = 1e-9; // panels narrower than this fraction of the first are not refined
 
@@ -85,20 +85,15 @@ export interface SynthesisResult {
   values: Float64Array;
   /** The error estimate of each sample (absolute). */
   errors: Float64Array;
-  /** Largest of `errors`, and that over the column's peak |value|. */
-  error: number;
-  relativeError: number;
-  peak: number;
+  /** Largest of `errors`, that over the column's peak |value|, and the peak. */
+  error: number; relativeError: number; peak: number;
   /** Number of G evaluations made (≤ maxEvaluations). */
   evaluations: number;
   met: boolean;
   /** Empty when met; otherwise why not, and what to change. */
   message: string;
   /** The band integrated, rad/s, the damping used, 1/s, and the number of panels. */
-  omegaLow: number;
-  omegaHigh: number;
-  damping: number;
-  panels: number;
+  omegaLow: number; omegaHigh: number; damping: number; panels: number;
 }
 
 interface Panel {
@@ -157,8 +152,13 @@ function sumColumn(panels: Panel[], s0: number, dt: number, out: Float64Array, s
   const N = out.length;
   for (const p of panels) {
     const lv = levels[p.level], h = p.b - p.a;
-    const m = Math.max(1, Math.ceil((h * sMax) / (2 * HALF_PHASE)));
-    const { nodes, weights } = rule(Math.ceil((lv.count - 1) / 2) + 16);
+    // Gauss with M points is exact to degree 2M − 1; e^{jκx} on [−1, 1] needs about
+    // κ + 10κ^{1/3} + 30 Legendre degrees to 1e-16 (its coefficients are (2k+1)·j^k·j_k(κ),
+    // DLMF 18.18.19 with 10.19.1 for k beyond κ), on top of the interpolant's own n − 1.
+    const kappa = (h * sMax) / 2;
+    const m = Math.max(1, Math.ceil(kappa / HALF_PHASE));
+    const k = kappa / m;
+    const { nodes, weights } = rule(8 * Math.ceil((lv.count + k + 10 * Math.cbrt(k) + 30) / 16));
     for (let j = 0; j < m; j++) {
       for (let i = 0; i < nodes.length; i++) {
         const x = -1 + (2 * j + 1 + nodes[i]) / m;
@@ -213,20 +213,17 @@ export function synthesizeTransient(o: SynthesisOptions): SynthesisResult {
   if (!Number.isInteger(N) || N < 0) throw new RangeError(`synthesizeTransient: samples must be an integer ≥ 0, got ${N}`);
   if (!(tol > 0) || !Number.isFinite(tol)) throw new RangeError(`synthesizeTransient: tolerance must be finite and > 0, got ${tol}`);
   if (!(maxEval >= 15)) throw new RangeError(`synthesizeTransient: maxEvaluations must be at least 15, got ${maxEval}`);
-  if (!Number.isFinite(D) || !Number.isFinite(tFirst) || !Number.isFinite(amplitude)) {
-    throw new RangeError('synthesizeTransient: delay, tFirst and amplitude must be finite');
-  }
+  if (![D, tFirst, amplitude].every(Number.isFinite)) throw new RangeError('synthesizeTransient: delay, tFirst and amplitude must be finite');
   if (!o.transfer && !o.transferMany) throw new RangeError('synthesizeTransient: give transfer or transferMany');
   const s0 = tFirst - w.t0 - D;
-  const sLast = s0 + (N - 1) * dt;
-  const sMax = Math.max(Math.abs(s0), Math.abs(sLast));
+  const sLast = s0 + (N - 1) * dt, sMax = Math.max(Math.abs(s0), Math.abs(sLast));
   const band = pulseBand(w, Math.max(1e-3 * tol, 1e-17));
   const damping = o.damping ?? 'auto';
   const alpha = damping === 'auto' ? (sLast > 0 ? Math.min(1 / sLast, 0.5 / band.time) : 0) : damping;
   if (!(alpha >= 0) || !Number.isFinite(alpha)) throw new RangeError(`synthesizeTransient: damping must be finite and ≥ 0, got ${o.damping}`);
   const values = new Float64Array(N);
-  const empty = { values, errors: new Float64Array(N), error: 0, relativeError: 0, peak: 0, evaluations: 0, met: true, message: '', omegaLow: band.lo, omegaHigh: band.hi, damping: alpha, panels: 0 };
-  if (N === 0) return empty;
+  const errors = new Float64Array(N);
+  if (N === 0) return { values, errors, error: 0, relativeError: 0, peak: 0, evaluations: 0, met: true, message: '', omegaLow: band.lo, omegaHigh: band.hi, damping: alpha, panels: 0 };
 
   let evaluations = 0;
   const growD = Math.exp(alpha * D);
@@ -259,21 +256,32 @@ export function synthesizeTransient(o: SynthesisOptions): SynthesisResult {
     a, b, level: START_LEVEL, re: new Float64Array(0), im: new Float64Array(0), estimate: Infinity, previous: Infinity, stalled, size: 0, gain: 0,
   });
   let pending: Panel[] = Array.from({ length: count }, (_, i) => blank(band.lo + i * firstWidth, i === count - 1 ? band.hi : band.lo + (i + 1) * firstWidth));
-  let lo = band.lo;
-  let hi = band.hi;
-  const errors = new Float64Array(N);
-  const stride = Math.max(1, Math.floor(Math.PI / (4 * band.hi * dt)));
-  const probe = new Float64Array(Math.ceil(N / stride));
+  let lo = band.lo, hi = band.hi;
+  // The peak sets the goal. After a first full column, each round looks only at every
+  // stride-th sample (at most 256, or a quarter of the Nyquist interval π/hi) and at the
+  // samples around the last peak: a value from below, so the goal is only ever too strict.
+  const stride = Math.max(1, Math.floor(Math.PI / (4 * band.hi * dt)), Math.ceil(N / 256));
+  let peakAt = 0;
+  const peakOver = (first: number, step: number, count: number): void => {
+    const part = new Float64Array(count);
+    sumColumn(panels, s0 + first * dt, dt * step, part, sMax);
+    for (let n = 0; n < count; n++) {
+      const v = Math.abs(part[n]) * Math.exp(alpha * (s0 + (first + n * step) * dt));
+      if (v > peak) { peak = v; peakAt = first + n * step; }
+    }
+  };
   let total = Infinity, peak = 0, interp = 0, tail = 0, low = 0, rounding = 0;
   let stop = '';
   for (let round = 0; ; round++) {
     install(pending, evaluate);
     panels = [...panels.filter((p) => !pending.includes(p)), ...pending].sort((x, y) => x.a - y.a);
-    // The peak sets the goal; a quarter of the Nyquist interval π/hi finds it closely enough
-    // (from below, so the goal is only ever too strict) at a fraction of a full column's cost.
-    sumColumn(panels, s0, dt * stride, probe, sMax);
     peak = 0;
-    for (let n = 0; n < probe.length; n++) peak = Math.max(peak, Math.abs(probe[n] * Math.exp(alpha * (s0 + n * stride * dt))));
+    if (round === 0) peakOver(0, 1, N);
+    else {
+      const near = Math.max(0, peakAt - 32);
+      peakOver(near, 1, Math.min(N, peakAt + 33) - near);
+      peakOver(0, stride, Math.ceil(N / stride));
+    }
     interp = panels.reduce((s, p) => s + p.estimate, 0) / Math.PI;
     const top = panels[panels.length - 1];
     tail = (top.gain * tailIntegral(w, amplitude, hi, alpha)) / Math.PI;
@@ -291,10 +299,7 @@ export function synthesizeTransient(o: SynthesisOptions): SynthesisResult {
     let cost = 0;
     const afford = (c: number) => evaluations + cost + c <= maxEval;
     if (tail > TAIL_SHARE * goal && afford(15)) { pending.push(blank(hi, hi + band.width)); cost += 15; hi += band.width; }
-    if (low > TAIL_SHARE * goal && lo > 0 && afford(15)) {
-      const next = Math.max(0, lo - band.width);
-      pending.push(blank(next, lo)); cost += 15; lo = next;
-    }
+    if (low > TAIL_SHARE * goal && lo > 0 && afford(15)) { pending.push(blank(Math.max(0, lo - band.width), lo)); cost += 15; lo = Math.max(0, lo - band.width); }
     let rest = interp * Math.PI;
     for (const p of [...panels].sort((x, y) => y.estimate - x.estimate)) {
       if (rest <= 0.25 * goal * Math.PI) break;
@@ -313,14 +318,14 @@ export function synthesizeTransient(o: SynthesisOptions): SynthesisResult {
     if (pending.length === 0) { stop = 'budget'; break; }
   }
   sumColumn(panels, s0, dt, values, sMax);
-  const amplifyAt = (n: number) => Math.exp(alpha * (s0 + n * dt));
-  for (let n = 0; n < N; n++) {
-    values[n] *= amplifyAt(n);
-    peak = Math.max(peak, Math.abs(values[n]));
-  }
-  const base = interp + tail + low + rounding;
   let error = 0;
-  for (let n = 0; n < N; n++) { errors[n] = amplifyAt(n) * base; error = Math.max(error, errors[n]); }
+  for (let n = 0; n < N; n++) {
+    const amplify = Math.exp(alpha * (s0 + n * dt));
+    values[n] *= amplify;
+    peak = Math.max(peak, Math.abs(values[n]));
+    errors[n] = amplify * (interp + tail + low + rounding);
+    error = Math.max(error, errors[n]);
+  }
   const relativeError = error === 0 ? 0 : peak > 0 ? error / peak : Infinity;
   const met = error <= tol * peak;
   return {
@@ -360,9 +365,7 @@ function install(pending: Panel[], evaluate: (nus: number[]) => { re: number[]; 
       const [cr, ci] = interpolate(coarse, p.re, p.im, 2, lv.x[i]);
       worst = Math.max(worst, Math.hypot(p.re[i] - cr, p.im[i] - ci));
     }
-    p.previous = p.estimate;
-    p.estimate = h * worst;
-    p.size = h * biggest;
+    [p.previous, p.estimate, p.size] = [p.estimate, h * worst, h * biggest];
     p.gain = Math.max(p.gain, gains.get(p) ?? 0);
   }
 }
@@ -379,15 +382,13 @@ function explain(stop: string, r: Outcome): string {
   if (stop === 'rounding') return `${head}The target is below the rounding level of this column; ask for a looser tolerance.`;
   if (r.evaluations < 2 * 15 * r.panels.length) return `${head}The budget ran out before the band was resolved; raise maxEvaluations.`;
   // The lowest frequencies are the cause only once refinement has graded panels towards ω = 0.
-  const graded = r.panels.filter((p) => p.a === 0 && p.b < r.firstWidth);
-  const nearZero = graded.reduce((s, p) => s + p.estimate, 0) / Math.PI;
+  const nearZero = r.panels.filter((p) => p.a === 0 && p.b < r.firstWidth).reduce((s, p) => s + p.estimate, 0) / Math.PI;
   if (nearZero > 0.5 * r.interp && nearZero > r.tail + r.low) {
     return r.w.kind === 'gaussian'
       ? `${head}Most of it comes from the lowest frequencies, where the gaussian pulse's DC content meets the logarithmic behaviour of the 2D field; a zero-DC waveform (modulated-gaussian or ricker) avoids it, or raise maxEvaluations.`
       : `${head}Most of it comes from the lowest frequencies, where the transfer function is singular; raise maxEvaluations or use damping.`;
   }
   if (r.tail + r.low > r.interp) return `${head}The transfer function grows too fast outside the pulse's band; raise maxEvaluations.`;
-  const worst = r.panels.reduce((x, y) => (y.estimate > x.estimate ? y : x));
-  const at = 0.5 * (worst.a + worst.b);
+  const worst = r.panels.reduce((x, y) => (y.estimate > x.estimate ? y : x)), at = 0.5 * (worst.a + worst.b);
   return `${head}Most of it lies near ω = ${at.toPrecision(3)} rad/s (${(at / (2 * Math.PI)).toPrecision(3)} Hz): raise maxEvaluations; if the transfer function varies fast there, give delay = the earliest arrival time, or damping > 0 for a sharp resonance.`;
 }

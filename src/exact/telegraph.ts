@@ -188,7 +188,9 @@ function validMedium(rho: number, epsR: number, sigma: number): boolean {
  *   Ez(ρ, t) = −(μ0/2π)·∫₀^∞ I'(t − (ρ/c)cosh u)·e^{−a(ρ/c)cosh u}·cosh(a(ρ/c)sinh u) du,
  * c = c0/√εr, a = σ/(2ε0εr). σ = 0 gives transientField (transient.ts) exactly. Composite
  * Gauss–Legendre quadrature (Davis & Rabinowitz, Methods of Numerical Integration, 1984,
- * ch. 2), as transient.ts; about 1e-12 of the peak. I is taken as zero outside t0 ± the
+ * ch. 2), as transient.ts: about 1e-12 of the peak, except where a·ρ/c ≫ 1 leaves only a small
+ * remainder of a cancelling integrand (test/reference/telegraph.test.ts): there the error is
+ * about 1e-16 of the lossless field's peak. I is taken as zero outside t0 ± the
  * waveform's extent, so the result is exactly 0 before t = ρ/c + t0 − extent.
  *
  * Edge cases: ρ ≤ 0, εr ≤ 0, σ < 0, any of them non-finite, or t = NaN give NaN;
