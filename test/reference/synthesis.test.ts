@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { Complex } from '../../src/exact/complex.ts';
+import { cylinderSeries } from '../../src/exact/cylinder-series.ts';
 import { relativePermittivity } from '../../src/exact/medium.ts';
 import { SYNTHESIS_MAX_EVALUATIONS, synthesizeTransient, type SynthesisResult } from '../../src/exact/synthesis.ts';
 import { lineSourceTransfer, permittivityAt, synthesizedLineSource } from '../../src/exact/synthesis-line-source.ts';
@@ -164,6 +165,31 @@ describe('dispersive media (no closed form): convergence and causality', () => {
   });
 });
 
+describe('a PEC cylinder beside the source (cylinder-series.ts per frequency)', () => {
+  it('converges and nothing arrives before the straight-line delay, lit side and shadow', () => {
+    const radius = 0.01;
+    const source = { rho: 0.03, phi: 0 };
+    for (const observer of [{ rho: 0.03, phi: Math.PI / 2 }, { rho: 0.04, phi: Math.PI }]) {
+      const R = Math.hypot(observer.rho * Math.cos(observer.phi) - source.rho, observer.rho * Math.sin(observer.phi));
+      // Ez/I = −(ωμ0/4)·F with F the series' normalised field (cylinder-series.ts), at complex ω
+      const transfer = (w: Complex): Complex => {
+        const f = cylinderSeries({ polarization: 'TMz', k1: [w[0] / C0, w[1] / C0], eps1: [1, 0], inside: 'pec', radius, source, observer }).value;
+        const s: Complex = [(-w[0] * MU0) / 4, (-w[1] * MU0) / 4];
+        return [s[0] * f[0] - s[1] * f[1], s[0] * f[1] + s[1] * f[0]];
+      };
+      for (const w of [ricker, gaussian]) {
+        const base = { waveform: w, amplitude: 1, transfer, delay: R / C0, dt: 1e-12, samples: 1200 };
+        const coarse = synthesizeTransient(base);
+        const fine = synthesizeTransient({ ...base, tolerance: 1e-7 });
+        expect(coarse.met && fine.met).toBe(true); // documented
+        expect(worstOverEstimate(coarse, fine.values)).toBeLessThanOrEqual(1); // refinement study, common practice, no source
+        const front = R / C0 + w.t0 - waveformExtent(w);
+        for (let n = 0; n * 1e-12 < front; n++) expect(Math.abs(fine.values[n])).toBeLessThanOrEqual(fine.errors[n]); // causality: no path is shorter than R, common practice
+      }
+    }
+  });
+});
+
 describe('low frequencies: the late tail of a gaussian pulse', () => {
   /*
    * For a current with charge Q = ∫I dt ≠ 0 the late field is set by the small-ω form of G. With
@@ -297,6 +323,14 @@ describe('edge cases', () => {
     const r = synthesizeTransient({ ...base, samples: 50, tFirst: -5e-9 });
     expect(r.met).toBe(false); // documented
     expect(r.message).toContain('no signal'); // documented
+  });
+
+  it('a target below the rounding level is refused honestly, not chased to the bound', () => {
+    const r = synthesizeTransient({ ...base, tolerance: 1e-15 });
+    expect(r.met).toBe(false); // documented
+    expect(r.message).toContain('rounding level'); // documented: says why
+    expect(r.evaluations).toBeLessThan(SYNTHESIS_MAX_EVALUATIONS / 2); // documented: stops once only rounding is left
+    expect(r.relativeError).toBeLessThan(1e-11); // documented: the best column, with its estimate
   });
 
   it('bad arguments are refused', () => {
