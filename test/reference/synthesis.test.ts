@@ -237,6 +237,31 @@ describe('low frequencies: the late tail of a gaussian pulse', () => {
   });
 });
 
+describe('low frequencies: the 1/t tail of TEz in a conductor', () => {
+  /*
+   * TEz with conductivity: ωε0εr = ωε − jσ, so G = −(ωε0εr/4)H0⁽²⁾(kρ) → (jσ/4)·H0⁽²⁾(kρ) as
+   * ω → 0, with k → √(−jωμ0σ) = √(ωμ0σ)·e^{−jπ/4}. By DLMF 10.8.2, (jσ/4)H0⁽²⁾ ≈ jσ/4 +
+   * (σ/2π)·ln k + const = (σ/4π)·ln ω + jσ/8 + real constants. Continued to ω < 0 as a real
+   * response must be, these are (σ/4π)ln|ω| and (jσ/8)·sign ω, whose inverse transforms are
+   * −1/(2|t|) and −1/(πt) (Gel'fand & Shilov, Generalized Functions I, ch. II; from memory), so
+   * for a magnetic current of charge Q = ∫M dt, Hz → −(σQ/8π)/t − (σQ/8π)/t = −σQ/(4πt): a 1/t
+   * tail (TMz has 1/t², above), with relative corrections of order (t0 + 1/a)/t, a = σ/(2ε).
+   */
+  it('Hz follows −σQ/(4πt)', () => {
+    const sigma = 0.1;
+    const epsR = 4;
+    const a = sigma / (2 * EPS0 * epsR);
+    const q = Math.sqrt(Math.PI) * 1e-10;
+    const r = synthesizedLineSource({ epsR, sigma }, 'TEz', gaussian, 1, 0.03, 1e-8, 4, { tFirst: 1e-8, tolerance: 1e-6 });
+    expect(r.met).toBe(true); // documented
+    for (let n = 0; n < 4; n++) {
+      const t = 1e-8 * (n + 1);
+      const tail = (-sigma * q) / (4 * Math.PI * t);
+      expect(Math.abs(r.values[n] / tail - 1)).toBeLessThan((2 * (gaussian.t0 + 1 / a)) / t); // DLMF 10.8.2 and the transforms above
+    }
+  });
+});
+
 describe('TEz duality in a lossless medium', () => {
   /*
    * Duality (Harrington 1961, §3-2): E → H, H → −E, ε ↔ μ, J → M maps Maxwell's equations
