@@ -106,7 +106,7 @@ export function envelope(w: Waveform, amplitude: number, nu: number, alpha: numb
  * @param alpha - α ≥ 0, 1/s
  * @returns the integral, A (A·s times rad/s)
  * @example
- * tailIntegral({ kind: 'ricker', f0: 1e10, t0: 0 }, 1, 4e11, 0); // tiny: 4e11 rad/s is far above the peak
+ * tailIntegral({ kind: 'ricker', f0: 1e10, t0: 0 }, 1, 4e11, 0); // ≈ 5.79e-17 A: far above the peak
  */
 export function tailIntegral(w: Waveform, amplitude: number, W: number, alpha: number): number {
   const A = Math.abs(amplitude);

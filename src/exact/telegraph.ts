@@ -206,7 +206,7 @@ function validMedium(rho: number, epsR: number, sigma: number): boolean {
  * @returns Ez, V/m
  * @throws RangeError when refinement is not a finite number ≥ 1
  * @example
- * telegraphField({ kind: 'ricker', f0: 1e9, t0: 2e-9 }, 1, 0.1, 4, 0.01, 3e-9); // Ez in V/m
+ * telegraphField({ kind: 'ricker', f0: 1e9, t0: 2e-9 }, 1, 0.1, 4, 0.01, 3e-9); // ≈ 438.376 V/m
  */
 export function telegraphField(
   w: Waveform, amplitude: number, rho: number, epsR: number, sigma: number, t: number, refinement = 1,
