@@ -12,7 +12,7 @@ import type { Complex } from './complex.ts';
  * closed form (the transforms of waveformSpectrum, continued off the real axis; all three
  * are entire): gaussian √π·τ·e^{−(ωτ/2)²}; modulated-gaussian [g(ω − ω0) − g(ω + ω0)]/(2j)
  * with g the gaussian's; ricker (√π/a)·2q·e^{−q}, a = πf0, q = ω²/(4a²). Gradshteyn &
- * Ryzhik 3.896.4 (the Gaussian transform).
+ * Ryzhik 3.896.4 (the Gaussian transform; number from memory).
  *
  * @param w - waveform (its t0 is ignored)
  * @param amplitude - A
@@ -97,7 +97,7 @@ export function envelope(w: Waveform, amplitude: number, nu: number, alpha: numb
 /**
  * ∫_W^∞ (ω/W)·envelope(ω) dω in closed form: ∫ ω·e^{−(ωτ/2)²} dω = (2/τ²)·e^{−(Wτ/2)²};
  * ∫ ω³·e^{−ω²/(4a²)} dω = 8a⁴(S + 1)e^{−S}, S = W²/(4a²); and for the modulated kind, with
- * V = W − ω0 > 0, the bound erfc(x) ≤ e^{−x²}/(x√π) (Abramowitz & Stegun 7.1.13). The bound on
+ * V = W − ω0 > 0, the bound erfc(x) ≤ e^{−x²}/(x√π) (Abramowitz & Stegun 7.1.13, from memory). The bound on
  * the part of the synthesis integral beyond W when |G| grows at most linearly.
  *
  * @param w - waveform

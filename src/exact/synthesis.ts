@@ -154,8 +154,9 @@ function sumColumn(panels: Panel[], s0: number, dt: number, out: Float64Array, s
   for (const p of panels) {
     const lv = levels[p.level], h = p.b - p.a;
     // Gauss with M points is exact to degree 2M − 1; e^{jκx} on [−1, 1] needs about
-    // κ + 10κ^{1/3} + 30 Legendre degrees to 1e-16 (its coefficients are (2k+1)·j^k·j_k(κ),
-    // DLMF 18.18.19 with 10.19.1 for k beyond κ), on top of the interpolant's own n − 1.
+    // κ + 10κ^{1/3} + 30 Legendre degrees to 1e-16 (its coefficients are (2k+1)·j^k·j_k(κ) by
+    // Rayleigh's expansion, DLMF 10.60.7, and j_k(κ) dies off fast for k beyond κ, DLMF 10.19.1;
+    // numbers from memory), on top of the interpolant's own degree n − 1.
     const kappa = (h * sMax) / 2;
     const m = Math.max(1, Math.ceil(kappa / HALF_PHASE));
     const k = kappa / m;
@@ -191,8 +192,10 @@ function sumColumn(panels: Panel[], s0: number, dt: number, out: Float64Array, s
  * (module comment; Trefethen, SIAM Review 50, 2008; Piessens et al., QUADPACK, 1983). The band
  * comes from the pulse's closed-form spectrum (|Ic| below 1e-3·tolerance of its peak, widened
  * while the tail bound asks for it). Work is bounded: at most `maxEvaluations` G calls, however
- * long the column. The returned estimate is never smaller than the method's error bound; when
- * the target is not reached, `met` is false and `message` says why and what to change.
+ * long the column. The estimate bounds the error wherever the panels' two-level estimates hold
+ * (no feature of G narrower than a panel's node spacing goes unseen); the tests hold it against
+ * exact columns. When the target is not reached, `met` is false and `message` says why and
+ * what to change.
  *
  * @param o - see {@link SynthesisOptions}: waveform, amplitude, transfer (ω complex, rad/s),
  *   delay D (s), tFirst and dt (s), samples, tolerance (relative), damping (1/s), maxEvaluations

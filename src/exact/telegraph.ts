@@ -14,12 +14,12 @@ import { gaussLegendre } from './gauss-legendre.ts';
  * (1/c²)(w_tt − a²w) − ∇²w = δδδ, whose Laplace transform in t is (1/2π)·K0((ρ/c)·√(s² − a²));
  * the pair ∫ e^{−st}·cosh(b√(t² − T²))/√(t² − T²)·H(t − T) dt = K0(T√(s² − b²)) (write
  * t = T·cosh u and s·cosh u ∓ b·sinh u = √(s² − b²)·cosh(u ∓ u0); the two halves of cosh make
- * ∫_{−∞}^{∞} e^{−R cosh v} dv/2 = K0(R), DLMF 10.32.9) gives
+ * ∫_{−∞}^{∞} e^{−R cosh v} dv/2 = K0(R), DLMF 10.32.9, number from memory) gives
  *   g(ρ, t) = H(t − ρ/c)·e^{−at}·cosh(a·√(t² − ρ²/c²)) / (2π·√(t² − ρ²/c²)).
  * There is no further term: in 2D, unlike 3D, the wavefront carries no delta function (the
  * lossless 2D kernel has none to attenuate), and the transform of g above is the whole of
  * ĝ(s) = (1/2π)·K0(ρ·√(s² + 2as)/c). At s = jω, √(s² + 2as)/c = jk with k² = ω²μ0ε − jωμ0σ,
- * Im k < 0, and K0(jkρ) = −(jπ/2)·H0⁽²⁾(kρ) (DLMF 10.27.8), so −jωμ0·ĝ(jω) = −(ωμ0/4)·H0⁽²⁾(kρ):
+ * Im k < 0, and K0(jkρ) = −(jπ/2)·H0⁽²⁾(kρ) (DLMF 10.27.8; checked numerically with mpmath), so −jωμ0·ĝ(jω) = −(ωμ0/4)·H0⁽²⁾(kρ):
  * the frequency-domain transfer function, as it must be. Convolving with −μ0·I' and putting
  * t − τ = (ρ/c)·cosh u:
  *   Ez(ρ, t) = −(μ0/2π)·∫₀^∞ I'(t − (ρ/c)cosh u)·e^{−a(ρ/c)cosh u}·cosh(a(ρ/c)sinh u) du,

@@ -53,7 +53,7 @@ describe('the integrand at complex frequency', () => {
         const omega = 2 * Math.PI * f;
         const [r, i] = waveformSpectrum(w, 2, f);
         const shifted: Complex = [r * Math.cos(omega * w.t0) - i * Math.sin(omega * w.t0), r * Math.sin(omega * w.t0) + i * Math.cos(omega * w.t0)];
-        expect(dist(centredSpectrum(w, 2, [omega, 0]), shifted)).toBeLessThan(1e-14 * 2 * 1.8e-10); // waveforms.ts closed forms (Gradshteyn & Ryzhik 3.896.4)
+        expect(dist(centredSpectrum(w, 2, [omega, 0]), shifted)).toBeLessThan(1e-14 * 2 * 1.8e-10); // waveforms.ts closed forms (Gradshteyn & Ryzhik 3.896.4, from memory)
       }
     }
   });
@@ -85,7 +85,7 @@ describe('the integrand at complex frequency', () => {
   it('the band and tail bounds are what their closed forms say', () => {
     const band = pulseBand(gaussian, 1e-8);
     const tau = 1e-10;
-    expect(Math.sqrt(Math.PI) * tau * Math.exp(-((band.hi * tau / 2) ** 2)) / (Math.sqrt(Math.PI) * tau)).toBeCloseTo(1e-8, 20); // Gaussian spectrum, Gradshteyn & Ryzhik 3.896.4
+    expect(Math.sqrt(Math.PI) * tau * Math.exp(-((band.hi * tau / 2) ** 2)) / (Math.sqrt(Math.PI) * tau)).toBeCloseTo(1e-8, 20); // Gaussian spectrum, Gradshteyn & Ryzhik 3.896.4 (from memory)
     // ∫_W^∞ (ω/W)·√πτ·e^{−(ωτ/2)²} dω by the trapezoid rule, against the closed form
     const W = 5e10;
     let sum = 0;
@@ -199,7 +199,7 @@ describe('low frequencies: the late tail of a gaussian pulse', () => {
    * H0⁽²⁾(x) = 1 − (2j/π)(ln(x/2) + γ) + O(x² ln x) (DLMF 10.8.2), the two-sided continuation
    * (G(−ω) = conj G(ω)) of −(ωμ0/4)H0⁽²⁾(ωa) is −(μ0/4)|ω| + (jμ0/2π)·ω·ln|ω| + analytic
    * terms; the inverse transforms (1/2π)∫|ω|e^{jωt}dω = −1/(πt²) and (1/2π)∫ln|ω|e^{jωt}dω =
-   * −1/(2|t|) (Gel'fand & Shilov, Generalized Functions I, ch. II) each give (μ0/2π)·Q/(2t²), so
+   * −1/(2|t|) (Gel'fand & Shilov, Generalized Functions I, ch. II; from memory) each give (μ0/2π)·Q/(2t²), so
    * Ez → (μ0/2π)·Q/t², whatever the permittivity. Expanding the time-domain form
    * −(μ0/2π)∫I'(τ)/√((t−τ)² − a²)dτ further (transient.test.ts) gives
    *   Ez ≈ (μ0/2π)[Q/t² + 2M1/t³ + (3M2 + 1.5a²Q)/t⁴],  Mn = ∫τⁿI dτ,  a = ρ√ε/c0,
@@ -267,7 +267,7 @@ describe('low frequencies: the 1/t tail of TEz in a conductor', () => {
 
 describe('TEz duality in a lossless medium', () => {
   /*
-   * Duality (Harrington 1961, §3-2): E → H, H → −E, ε ↔ μ, J → M maps Maxwell's equations
+   * Duality (Harrington 1961, §3-2; section from memory): E → H, H → −E, ε ↔ μ, J → M maps Maxwell's equations
    * onto themselves. The TMz line current I gives Ez/I = −(ωμ/4)H0⁽²⁾(kρ); its dual, a
    * magnetic line current M, gives Hz/M = −(ωε/4)H0⁽²⁾(kρ) with the same k = ω√(με). So in a
    * lossless, non-dispersive medium Hz/M = (ε/μ)·Ez/I at every ω, hence at every t.
@@ -279,7 +279,7 @@ describe('TEz duality in a lossless medium', () => {
       const ez = exactTimeSeries(w, 1, 0.05, epsR, 1e-12, 1500).map((v) => v * ratio);
       const r = synthesizedLineSource({ epsR }, 'TEz', w, 1, 0.05, 1e-12, 1500);
       expect(r.met).toBe(true); // documented
-      expect(worstOverEstimate(r, ez)).toBeLessThanOrEqual(1); // duality (Harrington 1961 §3-2) and transient.ts
+      expect(worstOverEstimate(r, ez)).toBeLessThanOrEqual(1); // duality (Harrington 1961 §3-2, from memory) and transient.ts
     }
   });
 });
