@@ -1,6 +1,6 @@
 import { collectResults, type RunResults } from '../compare/results.ts';
 import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
-import { Simulation } from '../engine/simulation.ts';
+import { makeSimulation } from '../engine/create-simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runExtras, runFiles } from '../io/outputs.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
@@ -93,7 +93,7 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   const json = args.options.has('json');
   const outDir = args.options.get('out') as string | undefined;
   const t0 = performance.now();
-  const sim = await Simulation.create(scenario);
+  const sim = await makeSimulation(scenario);
   let interrupted = false;
   const onSignal = () => { interrupted = true; };
   process.on('SIGINT', onSignal);

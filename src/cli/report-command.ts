@@ -11,7 +11,7 @@ import { basename, dirname, join } from 'node:path';
 import { errorMapOf } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
 import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
-import { Simulation } from '../engine/simulation.ts';
+import { makeSimulation } from '../engine/create-simulation.ts';
 import { buildReport, type ReportStudy } from '../io/report.ts';
 import { isStudyJson, studyKind } from '../io/report/study-data.ts';
 import { deriveQuantities, scenarioMemoryBytes } from '../scenario/derived.ts';
@@ -113,7 +113,7 @@ export async function commandReport(args: ParsedArgs): Promise<number> {
   if (map.note) note(`gridgauge: no error map: ${map.note}`);
 
   const t0 = performance.now();
-  const sim = await Simulation.create(scenario, map.frequency !== undefined ? { fullGridFrequency: map.frequency } : {});
+  const sim = await makeSimulation(scenario, map.frequency !== undefined ? { fullGridFrequency: map.frequency } : {});
   let interrupted = false;
   const onSignal = () => { interrupted = true; };
   process.on('SIGINT', onSignal);

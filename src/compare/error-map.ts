@@ -1,5 +1,5 @@
-import type { Simulation } from '../engine/simulation.ts';
-import { lineCurrentTransfer } from '../exact/transfer.ts';
+import type { AnySimulation } from '../engine/create-simulation.ts';
+import { exactReference } from './reference.ts';
 import { relativeErrorDb, schemeTransfer } from './metrics.ts';
 
 /** |FDTD/exact − 1| in dB at every Ez node, at the frequency of the full-grid running DFT. */
@@ -15,7 +15,8 @@ export interface ErrorMap {
 /**
  * The error map of a run: at each node, the scheme's transfer function (full-grid DFT of
  * Ez over the DFT of the injected current, the same ratio as spectra.csv) against the
- * exact line-current field −(ωμ/4)·H0^(2)(kρ), as 20·log10|FDTD/exact − 1|. Dispersion
+ * exact field of the scenario (compare/reference.ts: the line source in its medium, or beside
+ * one circular object), as 20·log10|FDTD/exact − 1|; NaN everywhere without an exact reference. Dispersion
  * anisotropy shows as error growing faster along the axes than along the diagonals;
  * absorber reflections show as ripples over the interior. Returns undefined when the
  * simulation was created without a full-grid DFT.
@@ -25,22 +26,23 @@ export interface ErrorMap {
  * sim.run();
  * errorMapOf(sim)?.db; // Float32Array of nx·ny values in dB
  */
-export function errorMapOf(sim: Simulation): ErrorMap | undefined {
+export function errorMapOf(sim: AnySimulation): ErrorMap | undefined {
   const full = sim.fullGridDft();
   const f = sim.fullGridFrequency;
   if (!full || f === undefined) return undefined;
-  const { nx, ny, dx, dy, source } = sim.layout;
-  const epsR = sim.scenario.medium.epsR;
+  const { nx, ny } = sim.layout;
+  const reference = exactReference(sim.scenario);
   const current = sim.currentDft(f);
   const hasCurrent = current[0] * current[0] + current[1] * current[1] > 0;
-  const db = new Float32Array(nx * ny);
+  const db = new Float32Array(nx * ny).fill(NaN);
+  if (!hasCurrent || reference.kind === 'none') return { nx, ny, f_Hz: f, db };
+  const row = Array.from({ length: nx }, (_, i) => ({ i, j: 0, x: i * sim.layout.dx, y: 0 }));
   for (let j = 0; j < ny; j++) {
-    const yy = (j - source.j) * dy;
+    for (const node of row) { node.j = j; node.y = j * sim.layout.dy; }
+    const exact = reference.transfer(f, row);
     for (let i = 0; i < nx; i++) {
       const k = j * nx + i;
-      const rho = Math.hypot((i - source.i) * dx, yy);
-      if (!(rho > 0) || !hasCurrent) { db[k] = NaN; continue; }
-      db[k] = relativeErrorDb(schemeTransfer([full.re[k], full.im[k]], current), lineCurrentTransfer(f, rho, epsR));
+      db[k] = relativeErrorDb(schemeTransfer([full.re[k], full.im[k]], current), exact[i]);
     }
   }
   return { nx, ny, f_Hz: f, db };

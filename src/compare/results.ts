@@ -1,11 +1,14 @@
-import type { Complex, Simulation } from '../engine/simulation.ts';
+import type { AnySimulation } from '../engine/create-simulation.ts';
+import type { Complex } from '../exact/complex.ts';
 import { predictedPhaseErrorDeg } from '../exact/dispersion.ts';
+import { predictedErrors } from '../exact/dispersion-lossy.ts';
 import { wrapDegrees } from '../exact/angles.ts';
-import { lineCurrentTransfer } from '../exact/transfer.ts';
-import { exactTimeSeries } from '../exact/transient.ts';
+import { isSimpleMedium } from '../exact/medium.ts';
 import { nodeDistance, type Node } from '../scenario/layout.ts';
 import { unreachedProbes } from '../scenario/warnings.ts';
+import { exactColumn } from './exact-series.ts';
 import { complexRatioErrors, maxDifferenceAndPeak, schemeTransfer } from './metrics.ts';
+import { exactReference, type ExactReference } from './reference.ts';
 
 /** FDTD beside exact at one point and one frequency, both as Ez/I in V/m per A. */
 export interface SpectrumPoint {
@@ -29,8 +32,11 @@ export interface ProbeResult {
   reached: boolean;
   /** ρ in wavelengths at each analysis frequency (medium wavelength). */
   rho_wavelengths: number[];
-  /** max_n |fdtd − exact| / max_n |exact|; NaN where undefined (ρ = 0). */
+  /** max_n |fdtd − exact| / max_n |exact|; NaN where undefined (ρ = 0, no exact reference). */
   relErrMax: number;
+  /** Error estimate of the exact column relative to its peak, and why it misses the target (empty when it meets it). */
+  exact_error: number;
+  exact_note: string;
   fdtd: Float32Array;
   exact: Float64Array;
   spectra: SpectrumPoint[];
@@ -51,25 +57,34 @@ export interface RunResults {
   lines: LineResult[];
 }
 
-/** Predicted phase error from the dispersion relation, wrapped; NaN where no real k̃ exists. */
-function predicted(sim: Simulation, f: number, from: Node, to: Node, rho: number): number {
-  if (!(rho > 0)) return NaN;
+/**
+ * Errors the dispersion relation predicts along the direction from the source: the lossless
+ * Yee relation (phase only) in a lossless medium, the relation with the scheme's discrete
+ * permittivity (phase and magnitude) in a lossy or dispersive one. NaN with objects, where no
+ * plane-wave prediction applies; "evanescent" where Re εr ≤ 0 leaves no wave to compare.
+ */
+function predicted(sim: AnySimulation, f: number, from: Node, to: Node, rho: number): { phase: number; mag: number; note: string } {
+  if (!(rho > 0) || (sim.scenario.objects?.length ?? 0) > 0) return { phase: NaN, mag: NaN, note: '' };
   const { dx, dy, dt, c } = sim.layout;
   const theta = Math.atan2((to.j - from.j) * dy, (to.i - from.i) * dx);
-  return wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
+  if (isSimpleMedium(sim.scenario.medium)) {
+    const phase = wrapDegrees(predictedPhaseErrorDeg(f, rho, theta, dx, dy, dt, c));
+    // the lossless relation gives a real k̃: no predicted change of magnitude
+    return { phase, mag: Number.isFinite(phase) ? 0 : NaN, note: '' };
+  }
+  const p = predictedErrors(sim.scenario.medium, f, theta, rho, dx, dy, dt);
+  return { phase: wrapDegrees(p.phaseDeg), mag: p.magDb, note: p.evanescent ? 'evanescent' : '' };
 }
 
-function spectrumPoint(sim: Simulation, f: number, current: Complex, dft: Complex, node: Node, rho: number, reached = true): SpectrumPoint {
+function spectrumPoint(sim: AnySimulation, f: number, current: Complex, dft: Complex, exact: Complex, node: Node, rho: number, reached = true): SpectrumPoint {
   const fdtd = schemeTransfer(dft, current);
-  const exact = lineCurrentTransfer(f, rho, sim.scenario.medium.epsR);
   const { magDb, phaseDeg } = reached ? complexRatioErrors(fdtd, exact) : { magDb: NaN, phaseDeg: NaN };
-  const phase = predicted(sim, f, sim.layout.source, node, rho);
+  const p = predicted(sim, f, sim.layout.source, node, rho);
   return {
     f_Hz: f, rho_m: rho, fdtd, exact, mag_err_dB: magDb, phase_err_deg: phaseDeg,
-    predicted_phase_err_deg: phase,
-    // the lossless relation gives a real k̃: no predicted change of magnitude
-    predicted_mag_err_dB: Number.isFinite(phase) ? 0 : NaN,
-    note: reached ? '' : 'not reached',
+    predicted_phase_err_deg: p.phase,
+    predicted_mag_err_dB: p.mag,
+    note: !reached ? 'not reached' : p.note,
   };
 }
 
@@ -85,11 +100,11 @@ export function relativeMaxError(fdtd: ArrayLike<number>, exact: ArrayLike<numbe
  * and line spectra beside the Hankel transfer function, and the errors between them. Works
  * on a finished or a stopped simulation (it uses the steps taken so far).
  */
-export function collectResults(sim: Simulation): RunResults {
+export function collectResults(sim: AnySimulation): RunResults {
   const { layout, scenario, dt } = sim;
   const steps = sim.stepsDone;
-  const epsR = scenario.medium.epsR;
   const freqs = scenario.frequencies;
+  const reference: ExactReference = exactReference(scenario);
   const currents = freqs.map((f) => sim.currentDft(f));
   const src = layout.source;
   const unreached = unreachedProbes(scenario, steps);
@@ -97,16 +112,15 @@ export function collectResults(sim: Simulation): RunResults {
   const probes = layout.probes.map((p, index): ProbeResult => {
     const rho = nodeDistance(p, src, layout.dx, layout.dy);
     const fdtd = sim.probeSeries(index);
-    const exact = rho > 0
-      ? exactTimeSeries(scenario.source.waveform, scenario.source.amplitude, rho, epsR, dt, steps + 1)
-      : new Float64Array(steps + 1).fill(NaN);
+    const column = exactColumn(scenario, src, p, rho, dt, steps + 1);
     const reached = !unreached.has(index);
     return {
       name: p.name, i: p.i, j: p.j, x_m: p.x, y_m: p.y, rho_m: rho, reached,
       rho_wavelengths: freqs.map((f) => (rho * f) / layout.c),
-      relErrMax: reached ? relativeMaxError(fdtd, exact) : NaN,
-      fdtd, exact,
-      spectra: freqs.map((f, k) => spectrumPoint(sim, f, currents[k], sim.probeDft(index, k), p, rho, reached)),
+      relErrMax: reached ? relativeMaxError(fdtd, column.values) : NaN,
+      exact_error: column.relativeError, exact_note: column.message,
+      fdtd, exact: column.values,
+      spectra: freqs.map((f, k) => spectrumPoint(sim, f, currents[k], sim.probeDft(index, k), reference.transfer(f, [p])[0], p, rho, reached)),
     };
   });
 
@@ -114,10 +128,11 @@ export function collectResults(sim: Simulation): RunResults {
     const first = line.nodes[0];
     const points: LinePoint[] = [];
     freqs.forEach((f, k) => {
+      const exact = reference.transfer(f, line.nodes);
       line.nodes.forEach((node, n) => {
         const rho = nodeDistance(node, src, layout.dx, layout.dy);
         points.push({
-          ...spectrumPoint(sim, f, currents[k], sim.lineDft(l, n, k), node, rho),
+          ...spectrumPoint(sim, f, currents[k], sim.lineDft(l, n, k), exact[n], node, rho),
           s_m: nodeDistance(node, first, layout.dx, layout.dy), x_m: node.x, y_m: node.y, i: node.i, j: node.j,
         });
       });

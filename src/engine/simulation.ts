@@ -50,7 +50,7 @@ export class Simulation {
 
   constructor(module: WebAssembly.Module, scenario: Scenario, options: SimulationOptions = {}) {
     if (!isSimpleMedium(scenario.medium) || (scenario.objects?.length ?? 0) > 0 || (scenario.polarization ?? 'TMz') !== 'TMz') {
-      throw new Error('this engine runs lossless TMz scenarios without objects; use createSimulation() for the others');
+      throw new Error('this engine runs lossless TMz scenarios without objects; use createSimulation() (create-simulation.ts) for the others');
     }
     this.scenario = scenario;
     const layout = (this.layout = layoutOf(scenario));

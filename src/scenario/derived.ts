@@ -5,10 +5,11 @@
  * (the wavelength at the centre frequency of a baseband gaussian) are NaN, which the JSON
  * writer prints as null.
  */
-import { engineMemoryBytes, MEMORY_CAP_BYTES } from './memory.ts';
+import { MEMORY_CAP_BYTES } from './memory.ts';
+import { estimateMemoryBytes } from './memory-estimate.ts';
 import { waveformBand } from './waveforms.ts';
 import { errorMapsThatFit, fullGridDftBytes } from './readouts.ts';
-import { layoutOf, stabilityLimit, timeStep, waveSpeed } from './layout.ts';
+import { stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { Scenario } from './types.ts';
 
 export interface DerivedQuantities {
@@ -57,15 +58,7 @@ export interface DerivedQuantities {
 
 /** Engine memory for a scenario, bytes: fields, absorber, probe series and running DFTs. */
 export function scenarioMemoryBytes(s: Scenario, fullGridDft = false): number {
-  const layout = layoutOf(s);
-  const lineNodeCount = layout.lines.reduce((sum, l) => sum + l.nodes.length, 0);
-  return engineMemoryBytes({
-    nx: s.grid.nx, ny: s.grid.ny, cells: s.absorber.cells, steps: s.steps,
-    probes: s.probes.length,
-    dftPoints: s.probes.length + lineNodeCount,
-    frequencies: s.frequencies.length,
-    fullGridDft,
-  });
+  return estimateMemoryBytes(s, fullGridDft);
 }
 
 /**

@@ -5,6 +5,10 @@
  */
 import { withWaveformDefaults } from './waveforms.ts';
 import { objectProblems } from './object-rules.ts';
+import { poleStabilityProblems } from './media-rules.ts';
+import { estimateMemoryBytes, runsOnMediaEngine } from './memory-estimate.ts';
+import { MEMORY_CAP_BYTES } from './memory.ts';
+import { showBytes } from './show.ts';
 import { closestName } from './did-you-mean.ts';
 import { locateJsonError } from './json-error.ts';
 import type { PathSegment } from './path.ts';
@@ -98,8 +102,13 @@ function validate(value: unknown): ParseResult {
   if (problems.length > 0 || !parsed.success) return { ok: false, problems: finish(problems) };
   const scenario = toScenario(parsed.data);
   // objects are judged against the whole scenario (absorber, source, probes), once all else is valid
-  const objectIssues = scenario.objects ? objectProblems(scenario) : [];
+  const objectIssues = [...poleStabilityProblems(scenario), ...(scenario.objects ? objectProblems(scenario) : [])];
   if (objectIssues.length > 0) return { ok: false, problems: objectIssues };
+  // the media engine's needs (pole states, patches) are known only now
+  const bytes = runsOnMediaEngine(scenario) ? estimateMemoryBytes(scenario) : 0;
+  if (bytes > MEMORY_CAP_BYTES) {
+    return { ok: false, problems: [{ path: 'grid.nx', message: `a ${scenario.grid.nx} × ${scenario.grid.ny} grid with this medium and these objects needs about ${showBytes(bytes)}, above the cap of ${showBytes(MEMORY_CAP_BYTES)}; use a smaller grid, fewer poles or steps` }] };
+  }
   return { ok: true, scenario };
 }
 

@@ -10,7 +10,7 @@
  */
 import { schemeTransfer } from '../compare/metrics.ts';
 import { driveSync } from '../engine/batch-driver.ts';
-import { Simulation } from '../engine/simulation.ts';
+import { createSimulation, type AnySimulation, type EngineModules } from '../engine/create-simulation.ts';
 import type { Scenario } from '../scenario/types.ts';
 
 /** Run a scenario and return the field at every probe, every sample (timeseries.csv). */
@@ -69,9 +69,9 @@ export function resultTransfers(result: StudyJobResult): ArrayBuffer[] {
  * Runs one job to the end on a fresh engine instance of `module`, calling `onProgress`
  * between batches of steps, and returns its result. Throws on engine errors.
  */
-export function runJob(module: WebAssembly.Module, job: StudyJob, onProgress: (done: number, total: number) => void = () => {}): StudyJobResult {
+export function runJob(modules: EngineModules, job: StudyJob, onProgress: (done: number, total: number) => void = () => {}): StudyJobResult {
   const t0 = performance.now();
-  const sim = new Simulation(module, job.scenario);
+  const sim = createSimulation(modules, job.scenario);
   try {
     driveSync(sim, { cellsPerBatch: 2e7, afterBatch: (s) => onProgress(s.stepsDone, s.stepsTotal) });
     const seconds = (performance.now() - t0) / 1000;
@@ -88,7 +88,7 @@ export function runJob(module: WebAssembly.Module, job: StudyJob, onProgress: (d
 }
 
 /** The scheme's transfer function at every probe and line node (the `fdtd` columns of spectra.csv and lines.csv). */
-function transferAtPoints(sim: Simulation): { transfer: Float64Array; points: number; finite: boolean } {
+function transferAtPoints(sim: AnySimulation): { transfer: Float64Array; points: number; finite: boolean } {
   const { layout, scenario } = sim;
   const points = layout.probes.length + layout.lines.reduce((n, l) => n + l.nodes.length, 0);
   const transfer = new Float64Array(2 * points * scenario.frequencies.length);

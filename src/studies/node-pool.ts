@@ -12,7 +12,7 @@
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { loadEngineModule } from '../engine/wasm.ts';
+import { loadEngineModules } from '../engine/create-simulation.ts';
 import { StudyPool, type WorkerFactory, type WorkerHandlers, type WorkerPort } from './pool.ts';
 
 const bundledWorkerUrl = new URL('../../build/cli/study-worker.cjs', import.meta.url);
@@ -64,11 +64,11 @@ export const nodeWorkerFactory: WorkerFactory = makeNodeWorkerFactory();
 function startWorker(from: Promise<WorkerSource>, handlers: WorkerHandlers): WorkerPort {
   let stopping = false;
   let worker: Worker | undefined;
-  Promise.all([from, loadEngineModule()]).then(([from, module]) => {
+  Promise.all([from, loadEngineModules()]).then(([from, modules]) => {
     if (stopping) return;
-    worker = from.kind === 'built' ? new Worker(bundledWorkerUrl, { workerData: { module } })
-      : from.kind === 'bundle' ? new Worker(from.code, { eval: true, workerData: { module } })
-        : new Worker(bootUrl, { workerData: { entry: entryUrl.href, module } });
+    worker = from.kind === 'built' ? new Worker(bundledWorkerUrl, { workerData: { modules } })
+      : from.kind === 'bundle' ? new Worker(from.code, { eval: true, workerData: { modules } })
+        : new Worker(bootUrl, { workerData: { entry: entryUrl.href, modules } });
     worker.on('message', handlers.message);
     worker.on('error', handlers.error);
     worker.on('exit', (code) => {

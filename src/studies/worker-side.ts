@@ -1,4 +1,4 @@
-import { loadEngineModule } from '../engine/wasm.ts';
+import { loadEngineModules, type EngineModules } from '../engine/create-simulation.ts';
 import { resultTransfers, runJob } from './jobs.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
@@ -17,8 +17,8 @@ const PROGRESS_INTERVAL_MS = 100;
  * sent, one at a time, posting progress and the result. The listener is attached before
  * the engine loads so no early message is lost.
  */
-export function serveStudyJobs(endpoint: WorkerEndpoint, engine: () => Promise<WebAssembly.Module> = loadEngineModule): void {
-  let module: WebAssembly.Module | undefined;
+export function serveStudyJobs(endpoint: WorkerEndpoint, engine: () => Promise<EngineModules> = loadEngineModules): void {
+  let module: EngineModules | undefined;
   const waiting: ToWorker[] = [];
 
   const handle = (message: ToWorker) => {
@@ -26,7 +26,7 @@ export function serveStudyJobs(endpoint: WorkerEndpoint, engine: () => Promise<W
     const { id, job } = message;
     let last = 0;
     try {
-      const result = runJob(module as WebAssembly.Module, job, (done, total) => {
+      const result = runJob(module as EngineModules, job, (done, total) => {
         const now = performance.now();
         if (now - last < PROGRESS_INTERVAL_MS && done < total) return;
         last = now;
