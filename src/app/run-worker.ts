@@ -6,13 +6,16 @@
 import { errorMapOf, type ErrorMap } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
 import { drive } from '../engine/batch-driver.ts';
-import { Simulation, type SimulationOptions } from '../engine/simulation.ts';
-import { loadEngineModule } from '../engine/wasm.ts';
+import { createSimulation, loadEngineModules, type AnySimulation, type EngineModules } from '../engine/create-simulation.ts';
+import type { SimulationOptions } from '../engine/simulation.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import type { Scenario } from '../scenario/types.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
 declare const self: DedicatedWorkerGlobalScope;
+
+/** Both engines, compiled once as the worker starts. */
+const modules = loadEngineModules();
 
 /** Frames and progress at least this often, ms (about 30 per second)... */
 const FRAME_INTERVAL_MS = 33;
@@ -40,7 +43,7 @@ function yieldToMessages(): Promise<void> {
   });
 }
 
-function frameOf(sim: Simulation, runId: number): FromWorker & { type: 'frame' } {
+function frameOf(sim: AnySimulation, runId: number): FromWorker & { type: 'frame' } {
   const { nx, ny } = sim.layout;
   const stride = Math.max(1, Math.ceil(Math.max(nx, ny) / FRAME_MAX_SIDE));
   const ez = sim.ezView();
@@ -71,7 +74,7 @@ function mapOptions(frequencies: readonly number[]): SimulationOptions {
 }
 
 /** The error maps a finished (or stopped) run accumulated, in the order asked for. */
-function mapsOf(sim: Simulation): ErrorMap[] {
+function mapsOf(sim: AnySimulation): ErrorMap[] {
   const map = errorMapOf(sim);
   return map ? [map] : [];
 }
@@ -81,9 +84,9 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   const t0 = performance.now();
   paused = false;
   stopRequested = false;
-  let sim: Simulation | undefined;
+  let sim: AnySimulation | undefined;
   try {
-    sim = await Simulation.create(scenario, mapOptions(message.mapFrequencies));
+    sim = createSimulation(await modules, scenario, mapOptions(message.mapFrequencies));
     const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
@@ -166,7 +169,7 @@ self.onmessage = (event: MessageEvent<ToWorker>) => {
  * browser then has optimised code for the engine and the comparison when the person's
  * first run starts, instead of warming up during it.
  */
-function warmUp(module: WebAssembly.Module): void {
+function warmUp(engines: EngineModules): void {
   const s = demoScenario();
   const cells = 8;
   const n = 72;
@@ -182,7 +185,7 @@ function warmUp(module: WebAssembly.Module): void {
     frequencies: [s.frequencies[0]],
     steps: 240,
   };
-  const sim = new Simulation(module, scenario, mapOptions(scenario.frequencies));
+  const sim = createSimulation(engines, scenario, mapOptions(scenario.frequencies));
   for (let k = 0; k < 12; k++) sim.step(20);
   frameOf(sim, 0);
   collectResults(sim);
@@ -191,10 +194,10 @@ function warmUp(module: WebAssembly.Module): void {
 }
 
 // Compile and warm the engine before saying "ready", so pressing run does not wait for it.
-loadEngineModule().then(
-  (module) => {
+modules.then(
+  (engines) => {
     try {
-      warmUp(module);
+      warmUp(engines);
     } catch {
       // a failed warm-up only costs speed; a real run reports its own errors
     }

@@ -11,6 +11,7 @@ import { waveformBand } from './waveforms.ts';
 import { errorMapsThatFit, fullGridDftBytes } from './readouts.ts';
 import { stabilityLimit, timeStep, waveSpeed } from './layout.ts';
 import type { Scenario } from './types.ts';
+import { isSimpleMedium, relativePermittivity, wavenumber } from '../exact/medium.ts';
 
 export interface DerivedQuantities {
   /** Time step, s. */
@@ -46,6 +47,17 @@ export interface DerivedQuantities {
   /** Interior nodes along x and y (the absorber layers excluded). */
   interiorNx: number;
   interiorNy: number;
+  /** εr(ω) of the medium at f0 and at the band edge, real and imaginary parts (Im ≤ 0 for a lossy medium). */
+  epsRAtF0_re: number;
+  epsRAtF0_im: number;
+  epsRAtBandEdge_re: number;
+  epsRAtBandEdge_im: number;
+  /** Attenuation over one wavelength at f0, dB (0 in a lossless medium). */
+  lossPerWavelengthAtF0_dB: number;
+  /** 1/|Im k| at f0 where the medium conducts, m (NaN without conductivity). */
+  skinDepthAtF0_m: number;
+  /** c∞ = c0/√ε∞, which sets the Courant limit, m/s. */
+  fastestWaveSpeed_m_per_s: number;
   /** Simulated time, steps·dt, s. */
   duration_s: number;
   /** One full-grid running DFT (the page's error map at one frequency), 8·nx·ny, bytes. */
@@ -75,7 +87,12 @@ export function deriveQuantities(s: Scenario): DerivedQuantities {
   const band = waveformBand(s.source.waveform);
   const f0 = s.source.waveform.kind === 'gaussian' ? band.peakHz : s.source.waveform.f0;
   const coarser = Math.max(dx, dy);
-  const wavelengthAt = (f: number) => (f > 0 ? c / f : NaN);
+  const simple = isSimpleMedium(s.medium);
+  // in a lossy or dispersive medium the wavelength follows Re k at each frequency
+  const wavelengthAt = (f: number) => (!(f > 0) ? NaN : simple ? c / f : (2 * Math.PI) / wavenumber(s.medium, f)[0]);
+  const eps0 = f0 > 0 ? relativePermittivity(s.medium, f0) : [NaN, NaN];
+  const epsEdge = relativePermittivity(s.medium, band.edgeHz);
+  const kF0 = f0 > 0 ? wavenumber(s.medium, f0) : [NaN, NaN];
   const memory = scenarioMemoryBytes(s);
   return {
     dt_s: dt,
@@ -99,5 +116,12 @@ export function deriveQuantities(s: Scenario): DerivedQuantities {
     fullGridDft_bytes: fullGridDftBytes(nx, ny),
     errorMapsFitting: errorMapsThatFit(memory, nx, ny, s.frequencies.length),
     nodeUpdates: nx * ny * s.steps,
+    epsRAtF0_re: eps0[0],
+    epsRAtF0_im: eps0[1],
+    epsRAtBandEdge_re: epsEdge[0],
+    epsRAtBandEdge_im: epsEdge[1],
+    lossPerWavelengthAtF0_dB: simple ? 0 : 20 * Math.LOG10E * Math.abs(kF0[1]) * ((2 * Math.PI) / kF0[0]),
+    skinDepthAtF0_m: (s.medium.sigma ?? 0) > 0 ? 1 / Math.abs(kF0[1]) : NaN,
+    fastestWaveSpeed_m_per_s: c,
   };
 }
