@@ -12,8 +12,10 @@
 import { engineMemoryBytes } from '../scenario/memory.ts';
 import { waveformBand } from '../scenario/waveforms.ts';
 import { phaseErrorPerWavelengthDeg } from '../exact/dispersion.ts';
+import { predictedErrors } from '../exact/dispersion-lossy.ts';
+import { isSimpleMedium, wavenumber } from '../exact/medium.ts';
 import { timeStep, waveSpeed } from '../scenario/layout.ts';
-import type { Scenario } from '../scenario/types.ts';
+import type { Medium, Scenario } from '../scenario/types.ts';
 import type { SpectraJob } from './jobs.ts';
 import type { ProjectionOptions } from './projection.ts';
 
@@ -99,9 +101,17 @@ export function studyFrequency(s: Scenario): number {
  * (τ = 1/f, t0 = 5τ); lines along x, y and the 45° diagonal from 2 to 5 wavelengths; and
  * enough steps for the pulse to pass the far ends and a few periods more.
  */
+/**
+ * The wavelength in a medium at f, m: c/f in a lossless medium (as always), 2π/Re k in a
+ * lossy or dispersive one (cells per wavelength count by Re k).
+ */
+export function mediumWavelength(m: Medium, f: number): number {
+  return isSimpleMedium(m) ? waveSpeed(m.epsR) / f : (2 * Math.PI) / wavenumber(m, f)[0];
+}
+
 export function measurementScenario(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
-  const c = waveSpeed(s.medium.epsR);
-  const wavelength = c / f;
+  const wavelength = mediumWavelength(s.medium, f);
+  const c = wavelength * f;
   const dx = wavelength / cellsPerWavelength;
   const dy = dx * (s.grid.dy / s.grid.dx);
   const cells = Math.max(s.absorber.cells, MEASUREMENT.minimumCells);
@@ -119,8 +129,9 @@ export function measurementScenario(s: Scenario, cellsPerWavelength: number, f: 
   const tau = 1 / f;
   const t0 = 5 * tau;
   const dt = timeStep(s.grid.courant, dx, dy, s.medium.epsR);
-  // the pulse is over by t0 + 6τ; a slow grid (a few % at 8 cells per wavelength) arrives late
-  const window = t0 + 6 * tau + (1.05 * r1) / c + M.tailPeriods / f;
+  // the pulse is over by t0 + 6τ; a slow grid (a few % at 8 cells per wavelength) arrives late,
+  // and in a dispersive medium the pulse travels slower than the phase at f
+  const window = t0 + 6 * tau + ((isSimpleMedium(s.medium) ? 1.05 : 1.3) * r1) / c + M.tailPeriods / f;
   return {
     format: 'gridgauge-scenario',
     version: 1,
@@ -128,6 +139,7 @@ export function measurementScenario(s: Scenario, cellsPerWavelength: number, f: 
     medium: { ...s.medium },
     absorber: { ...s.absorber, cells },
     source: { x, y, amplitude: 1, waveform: { kind: 'modulated-gaussian', f0: f, tau, t0 } },
+    ...(s.polarization ? { polarization: s.polarization } : {}),
     probes: [],
     lines: [
       { name: LINE_NAMES.x, x0: x + r0, y0: y, x1: x + r1, y1: y },
@@ -149,11 +161,17 @@ export function predictedLagPerWavelength(f: number, theta: number, dx: number, 
  * cells per wavelength along x, for a Courant number and dy/dx held fixed, degrees.
  * Works for any real N (the page draws it as a smooth curve).
  */
-export function predictedLags(f: number, epsR: number, courant: number, aspect: number, cellsPerWavelength: number): { x: number; y: number; diagonal: number } {
-  const c = waveSpeed(epsR);
-  const dx = c / f / cellsPerWavelength;
+export function predictedLags(f: number, medium: Medium, courant: number, aspect: number, cellsPerWavelength: number): { x: number; y: number; diagonal: number } {
+  const wavelength = mediumWavelength(medium, f);
+  const dx = wavelength / cellsPerWavelength;
   const dy = aspect * dx;
-  const dt = timeStep(courant, dx, dy, epsR);
+  const dt = timeStep(courant, dx, dy, medium.epsR);
+  if (!isSimpleMedium(medium)) {
+    // the relation with the scheme's discrete permittivity: the ADE's own error included
+    const lag = (theta: number) => Math.abs(predictedErrors(medium, f, theta, wavelength, dx, dy, dt).phaseDeg);
+    return { x: lag(0), y: lag(Math.PI / 2), diagonal: lag(Math.PI / 4) };
+  }
+  const c = waveSpeed(medium.epsR);
   return {
     x: predictedLagPerWavelength(f, 0, dx, dy, dt, c),
     y: predictedLagPerWavelength(f, Math.PI / 2, dx, dy, dt, c),
@@ -170,7 +188,7 @@ export function predictedLags(f: number, epsR: number, courant: number, aspect: 
 export function applyResolution(s: Scenario, cellsPerWavelength: number, f: number): Scenario {
   const { nx, ny, dx, dy } = s.grid;
   const L = s.absorber.cells;
-  const newDx = waveSpeed(s.medium.epsR) / f / cellsPerWavelength;
+  const newDx = mediumWavelength(s.medium, f) / cellsPerWavelength;
   const newDy = newDx * (dy / dx);
   const interior = (count: number, old: number, d: number) => Math.max(1, Math.ceil(((count - 1 - 2 * L) * old) / d - 1e-9));
   const mx = (x: number) => x - L * dx + L * newDx;
@@ -208,6 +226,7 @@ export interface ResolutionStudyPlan {
   wavelength_m: number;
   courant: number;
   epsR: number;
+  medium: Medium;
   /** dy/dx, held fixed. */
   aspect: number;
   /** Absorber cells assumed for the project grid. */
@@ -221,7 +240,6 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
   const problems = resolutionOptionProblems(options);
   if (problems.length > 0) throw new RangeError(problems.join('; '));
   const f = studyFrequency(s);
-  const c = waveSpeed(s.medium.epsR);
   const aspect = s.grid.dy / s.grid.dx;
   const candidates = resolutionList(options).map((n): ResolutionCandidatePlan => {
     const scenario = measurementScenario(s, n, f);
@@ -229,7 +247,7 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
     return {
       key: String(n), jobs: [{ kind: 'spectra', scenario }],
       cellsPerWavelength: n, dx_m: dx, dy_m: dy, dt_s: timeStep(s.grid.courant, dx, dy, s.medium.epsR), scenario,
-      predicted: predictedLags(f, s.medium.epsR, s.grid.courant, aspect, n),
+      predicted: predictedLags(f, s.medium, s.grid.courant, aspect, n),
     };
   });
   return {
@@ -237,9 +255,10 @@ export function planResolutionStudy(s: Scenario, options: ResolutionStudyOptions
     size_wavelengths: options.size_wavelengths,
     budget_deg: options.budget_deg,
     frequency_Hz: f,
-    wavelength_m: c / f,
+    wavelength_m: mediumWavelength(s.medium, f),
     courant: s.grid.courant,
     epsR: s.medium.epsR,
+    medium: s.medium,
     aspect,
     absorberCells: s.absorber.cells,
     projection: options.projection ?? {},

@@ -5,7 +5,7 @@
  * table, files and emitted runs.
  */
 import { complexRatioErrors } from '../compare/metrics.ts';
-import { lineCurrentTransfer } from '../exact/transfer.ts';
+import { exactReference } from '../compare/reference.ts';
 import { layoutOf, nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
@@ -14,7 +14,7 @@ import { transferAt, type SpectraResult } from './jobs.ts';
 import { fitLine, unwrapDegrees } from './phase-fit.ts';
 import type { StudyPool } from './pool.ts';
 import {
-  applyResolution, LINE_NAMES, planResolutionStudy, predictedLags, projectEstimate, resolutionOptionProblems,
+  applyResolution, LINE_NAMES, mediumWavelength, planResolutionStudy, predictedLags, projectEstimate, resolutionOptionProblems,
   type ProjectEstimate, type ResolutionCandidatePlan, type ResolutionStudyOptions, type ResolutionStudyPlan,
 } from './resolution-plan.ts';
 import { featureCellsPerWavelength, projectTo3d, type Projection3dResult, type ProjectionOptions } from './projection.ts';
@@ -89,14 +89,15 @@ export interface ResolutionStudyResult {
 export function lineSlopes(scenario: Scenario, run: SpectraResult): LinePhaseSlope[] {
   const layout = layoutOf(scenario);
   const f = scenario.frequencies[0];
-  const wavelength = layout.c / f;
+  const wavelength = mediumWavelength(scenario.medium, f);
+  const reference = exactReference(scenario);
   let point = layout.probes.length;
   return layout.lines.map((line): LinePhaseSlope => {
     const rho = new Float64Array(line.nodes.length);
     const wrapped = new Float64Array(line.nodes.length);
     line.nodes.forEach((node, k) => {
       rho[k] = nodeDistance(node, layout.source, layout.dx, layout.dy);
-      const exact = lineCurrentTransfer(f, rho[k], scenario.medium.epsR);
+      const exact = reference.transfer(f, [node])[0];
       wrapped[k] = complexRatioErrors(transferAt(run, 0, point++), exact).phaseDeg;
     });
     const fit = fitLine(rho, unwrapDegrees(wrapped));
@@ -205,7 +206,7 @@ const deg = (x: number) => formatSig(x, 3);
 
 /** The recommendation when the thinnest feature asks for finer cells than the phase budget: predicted figures at that resolution. */
 function featureRow(plan: ResolutionStudyPlan, base: ResolutionCandidateResult, n: number, mcells: number): ResolutionCandidateResult {
-  const p = predictedLags(plan.frequency_Hz, plan.epsR, plan.courant, plan.aspect, n);
+  const p = predictedLags(plan.frequency_Hz, plan.medium, plan.courant, plan.aspect, n);
   const dx = plan.wavelength_m / n;
   return {
     ...base, cellsPerWavelength: n, dx_m: dx, dy_m: dx * plan.aspect,
@@ -222,7 +223,7 @@ function resolutionCharts(plan: ResolutionStudyPlan, rows: readonly ResolutionCa
   const lo = plan.candidates[0].cellsPerWavelength;
   const hi = plan.candidates[plan.candidates.length - 1].cellsPerWavelength;
   const dense = Array.from({ length: 60 }, (_, k) => lo * (hi / lo) ** (k / 59));
-  const predicted = dense.map((n) => predictedLags(plan.frequency_Hz, plan.epsR, plan.courant, plan.aspect, n));
+  const predicted = dense.map((n) => predictedLags(plan.frequency_Hz, plan.medium, plan.courant, plan.aspect, n));
   const mx = measured.map((r) => r.cellsPerWavelength);
   return [{
     id: 'phase', title: 'Phase lag per wavelength against cells per wavelength',
