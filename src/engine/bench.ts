@@ -2,7 +2,8 @@ import { BENCH_CPML_CELLS, benchScenario } from './bench-scenario.ts';
 import { stripVectorsPerRow } from '../scenario/memory.ts';
 import { PlainKernel } from './plain-kernel.ts';
 import { Simulation } from './simulation.ts';
-import { instantiateEngine, loadEngineModule } from './wasm.ts';
+import { instantiateEngine, loadEngineModule, loadMediaModule } from './wasm.ts';
+import { measureMedium } from './bench-media.ts';
 
 /**
  * The engine benchmark behind `gridgauge bench`: Mcells/s (million Ez-node updates per
@@ -52,6 +53,13 @@ export interface BenchResult {
    */
   engine_cpu_mcells: number | null;
   plain_ts_cpu_mcells: number | null;
+  /** The medium of the run: "lossless" (the lossless engine), "lossy" (σ only) or "debye" (one Debye pole; both on the media engine). */
+  medium: string;
+  /** Media rows: the lossless engine's speed timed in alternation with this one, and the ratio. */
+  lossless_engine_mcells?: number;
+  ratio_to_lossless?: number;
+  /** Media rows: the media engine's memory beyond the lossless engine's for the same grid, bytes per cell (from memoryBytes). */
+  extra_bytes_per_cell?: number;
 }
 
 export interface MemoryBandwidth {
@@ -110,13 +118,13 @@ export interface BenchOptions {
 const CPML_CELLS = BENCH_CPML_CELLS;
 export { benchScenario };
 
-const median = (xs: number[]) => {
+export const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 };
 const now = () => performance.now() / 1e3;
-const round = (x: number, digits = 0) => Number(x.toFixed(digits));
+export const round = (x: number, digits = 0) => Number(x.toFixed(digits));
 const finite = (x: number) => (Number.isFinite(x) ? round(x) : null);
 
 interface Timing { wall: number; cpu: number }
@@ -129,7 +137,7 @@ function cpuSeconds(): number {
 }
 
 /** Wall-clock and CPU seconds for `count` steps of `step`. */
-function timeRun(step: (count: number) => unknown, count: number): Timing {
+export function timeRun(step: (count: number) => unknown, count: number): Timing {
   const c0 = cpuSeconds();
   const t0 = now();
   step(count);
@@ -152,7 +160,7 @@ function ownSeconds(step: (count: number) => unknown, count: number): number {
 }
 
 /** Steps that take about `seconds`, from a timed probe run of `probeSteps`. */
-function stepsFor(seconds: number, step: (count: number) => unknown, probeSteps: number): number {
+export function stepsFor(seconds: number, step: (count: number) => unknown, probeSteps: number): number {
   const t = Math.max(timeSteps(step, probeSteps), 1e-6);
   return Math.max(1, Math.round((seconds / t) * probeSteps));
 }
@@ -235,6 +243,7 @@ function measureSize(module: WebAssembly.Module, n: number, runs: number, runSec
     bandwidth_share_pct: round((100 * implied) / memoryBandwidth, 0),
     probes_overhead_pct: measureProbeOverhead(module, n, quick ? 3 : runs, runSeconds / 2),
     engine_cpu_mcells: finite(median(engineCpu)), plain_ts_cpu_mcells: finite(median(plainCpu)),
+    medium: 'lossless',
   };
 }
 
@@ -332,6 +341,13 @@ export async function runBench(options: BenchOptions = {}): Promise<BenchReport>
     say(`bench: ${n} × ${n}, engine and plain TypeScript`);
     results.push(measureSize(module, n, runs, runSeconds, bandwidth, quick));
   }
+  if (sizes.includes(1024)) {
+    const modules = { engine: module, media: await loadMediaModule() };
+    for (const medium of ['lossy', 'debye'] as const) {
+      say(`bench: 1024 × 1024, ${medium} medium on the media engine`);
+      results.push(measureMedium(modules, 1024, medium, runs, runSeconds));
+    }
+  }
   say('bench: speed early and late in a 256 × 256 run');
   const speedOverRun = measureSpeedOverRun(module, 256, quick);
   return {
@@ -351,7 +367,7 @@ export function formatBenchReport(r: BenchReport): string {
   lines.push('');
   lines.push(`${pad('grid', 11)}  ${pad('engine', 7)}  ${pad('plain TS', 8)}  ${pad('ratio', 5)}  ${pad('B/cell', 6)}  ${pad('implied', 7)}  ${pad('of bw', 5)}  ${pad('probes+DFT', 10)}  ${pad('by CPU time: engine', 19)}  ${pad('plain TS', 8)}`);
   lines.push(`${pad('', 11)}  ${pad('Mcells/s', 7)}  ${pad('Mcells/s', 8)}  ${pad('', 5)}  ${pad('', 6)}  ${pad('GB/s', 7)}  ${pad('', 5)}  ${pad('', 10)}  ${pad('Mcells/s', 19)}  ${pad('Mcells/s', 8)}`);
-  for (const x of r.results) {
+  for (const x of r.results.filter((row) => row.medium === 'lossless')) {
     lines.push([
       pad(`${x.nx} × ${x.ny}`, 11), pad(x.engine_mcells, 7), pad(x.plain_ts_mcells, 8), pad(x.ratio.toFixed(2), 5),
       pad(x.bytes_per_cell.toFixed(1), 6), pad(x.implied_GBps.toFixed(1), 7), pad(`${x.bandwidth_share_pct} %`, 5),
@@ -366,6 +382,15 @@ export function formatBenchReport(r: BenchReport): string {
   lines.push('  implied = B/cell × engine Mcells/s; "of bw" is its share of the memory bandwidth. Grids whose');
   lines.push(`  fields fit in the caches (${r.results.filter((x) => x.field_bytes <= 2 ** 20).map((x) => `${x.nx}²`).join(', ') || 'none here'} at 1 MiB or less) move less than that to memory.`);
   lines.push('probes+DFT: extra time with 10 probes, 2 lines of 200 nodes and 3 running DFT frequencies.');
+  const media = r.results.filter((row) => row.medium !== 'lossless');
+  if (media.length) {
+    lines.push('');
+    lines.push('media engine, timed in alternation with the lossless engine on the same grid:');
+    for (const x of media) {
+      lines.push(`  ${pad(`${x.nx} × ${x.ny}`, 11)}  ${pad(x.medium, 6)}  ${pad(x.engine_mcells, 6)} Mcells/s  (lossless ${x.lossless_engine_mcells}; ratio ${x.ratio_to_lossless?.toFixed(2)})  ` +
+        `plain TS ${x.plain_ts_mcells}  extra memory ${x.extra_bytes_per_cell} B/cell`);
+    }
+  }
   const s = r.speedOverRun;
   if (s) {
     lines.push('');
