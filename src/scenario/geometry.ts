@@ -10,7 +10,7 @@
  * When objects overlap, later ones cover earlier ones: `layeredLengths` and
  * `layeredAreas` share a segment or a box out among a list of shapes in that order.
  */
-import type { CircleObject, PolygonObject, RectangleObject } from './types.ts';
+import type { CircleObject, PolygonObject, RectangleObject, SceneObject } from './types.ts';
 
 export type Circle = Pick<CircleObject, 'shape' | 'x' | 'y' | 'radius'>;
 export type Rectangle = Pick<RectangleObject, 'shape' | 'x0' | 'y0' | 'x1' | 'y1'>;
@@ -273,4 +273,13 @@ function segmentsMeet(
   if (o3 === 0 && on(c, d, a)) return { proper: false, at: [a[0], a[1]] };
   if (o4 === 0 && on(c, d, b)) return { proper: false, at: [b[0], b[1]] };
   return undefined;
+}
+
+/** An object moved by (ox, oy) metres. */
+export function shiftObject(o: SceneObject, ox: number, oy: number): SceneObject {
+  switch (o.shape) {
+    case 'circle': return { ...o, x: o.x + ox, y: o.y + oy };
+    case 'rectangle': return { ...o, x0: o.x0 + ox, y0: o.y0 + oy, x1: o.x1 + ox, y1: o.y1 + oy };
+    case 'polygon': return { ...o, points: o.points.map(([x, y]) => [x + ox, y + oy] as [number, number]) };
+  }
 }

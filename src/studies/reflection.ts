@@ -1,5 +1,6 @@
 import { maxDifferenceAndPeak } from '../compare/metrics.ts';
 import type { Scenario } from '../scenario/types.ts';
+import { shiftObject } from '../scenario/geometry.ts';
 
 /**
  * Shifts a scenario's grid by whole cells: `addX`/`addY` nodes are added on each side
@@ -15,6 +16,7 @@ export function padScenario(s: Scenario, addX: number, addY: number): Scenario {
     source: { ...s.source, x: s.source.x + ox, y: s.source.y + oy },
     probes: s.probes.map((p) => ({ ...p, x: p.x + ox, y: p.y + oy })),
     lines: s.lines.map((l) => ({ ...l, x0: l.x0 + ox, y0: l.y0 + oy, x1: l.x1 + ox, y1: l.y1 + oy })),
+    ...(s.objects ? { objects: s.objects.map((o) => shiftObject(o, ox, oy)) } : {}),
   };
 }
 

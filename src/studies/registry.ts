@@ -6,11 +6,13 @@ import { absorberStudy } from './absorber-study.ts';
 import { convergenceStudy } from './convergence-study.ts';
 import type { AnyStudyDefinition } from './definition.ts';
 import { resolutionStudy } from './resolution-study.ts';
+import { staircaseStudy } from './staircase-study.ts';
 
 export const STUDIES: readonly AnyStudyDefinition[] = [
   absorberStudy,
   resolutionStudy,
   convergenceStudy,
+  staircaseStudy,
 ];
 
 /** The study with this id or command-line verb. */

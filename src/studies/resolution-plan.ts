@@ -16,6 +16,7 @@ import { predictedErrors } from '../exact/dispersion-lossy.ts';
 import { isSimpleMedium, wavenumber } from '../exact/medium.ts';
 import { timeStep, waveSpeed } from '../scenario/layout.ts';
 import type { Medium, Scenario } from '../scenario/types.ts';
+import { shiftObject } from '../scenario/geometry.ts';
 import type { SpectraJob } from './jobs.ts';
 import type { ProjectionOptions } from './projection.ts';
 
@@ -179,6 +180,7 @@ export function predictedLags(f: number, medium: Medium, courant: number, aspect
   };
 }
 
+
 /**
  * The user's scenario at another resolution: dx = λ/N at frequency `f` (dy keeps its
  * ratio to dx), the same Courant number, absorber cells, physical interior and simulated
@@ -201,6 +203,8 @@ export function applyResolution(s: Scenario, cellsPerWavelength: number, f: numb
     source: { ...s.source, x: mx(s.source.x), y: my(s.source.y) },
     probes: s.probes.map((p) => ({ ...p, x: mx(p.x), y: my(p.y) })),
     lines: s.lines.map((l) => ({ ...l, x0: mx(l.x0), y0: my(l.y0), x1: mx(l.x1), y1: my(l.y1) })),
+    // objects move with the interior too, so every distance inside it is held
+    ...(s.objects ? { objects: s.objects.map((o) => shiftObject(o, mx(0), my(0))) } : {}),
     steps: Math.max(1, Math.ceil((s.steps * oldDt) / newDt - 1e-9)),
   };
 }
