@@ -16,10 +16,10 @@ import type { ObjectCounts } from './object-counts.ts';
 import { draftObjectList, NEW_OBJECT_MATERIAL, newObject, newObjectSpot, objectNames, objectsValue, placementOfDraft, type ObjectShape } from './object-shapes.ts';
 import { idOf, type FieldKit } from './setup-fields.ts';
 
-const FILL_LABELS: Record<Fill, string> = {
-  staircase: 'staircase: each point takes the material it lies in',
-  average: 'average: ε and σ shared out by area in cut cells',
-  conformal: 'conformal: average, and cut cells beside a conductor',
+const FILL_LABELS: Record<Fill, [label: string, hint: string]> = {
+  staircase: ['staircase', 'each grid point takes the material it lies in'],
+  average: ['average', 'in a cell an object cuts, ε∞ and σ are shared out by area; conductors stay staircased'],
+  conformal: ['conformal', 'as average, and the cells and edges a conductor cuts keep the part outside the metal'],
 };
 
 const SHAPES: ObjectShape[] = ['circle', 'rectangle', 'polygon'];
@@ -97,13 +97,13 @@ function objectGroup(kit: FieldKit, v: ObjectsView, list: unknown[], k: number, 
       ${kit.textField(`Object ${k + 1} name`, [...base, 'name'])}
       ${shape === 'polygon' ? pointsEditor(kit, base, k) : shape ? COORDINATES[shape].map(([key, label]) => kit.field(label, [...base, key], { unit: 'length' })) : kit.problemText([...base, 'shape'])}
       <div class="field">
-        <label for=${materialId}>Material</label>
+        <label for=${materialId} title="PEC: a perfect electric conductor; medium: ε∞, σ and optional poles">Material</label>
         <select id=${materialId} aria-invalid=${kit.hasProblem([...base, 'material']) ? 'true' : 'false'} @change=${(e: Event) => {
           kit.host.clearTyping();
           const value = (e.target as HTMLSelectElement).value === 'pec' ? 'pec' : structuredClone(NEW_OBJECT_MATERIAL);
           kit.host.emit([{ path: [...base, 'material'], value }]);
         }}>
-          <option value="pec" ?selected=${pec}>perfect conductor (PEC)</option>
+          <option value="pec" ?selected=${pec}>PEC</option>
           <option value="medium" ?selected=${!pec}>medium</option>
         </select>
         ${pec ? kit.problemText([...base, 'material']) : nothing}
@@ -129,10 +129,11 @@ export function objectsSection(kit: FieldKit, v: ObjectsView): TemplateResult {
       <label for="f-fill">How objects enter the grid</label>
       <select id="f-fill" aria-invalid=${kit.hasProblem(['fill']) ? 'true' : 'false'}
         @change=${(e: Event) => kit.host.emit([{ path: ['fill'], value: (e.target as HTMLSelectElement).value }])}>
-        ${FILL_KINDS.map((f) => html`<option value=${f} ?selected=${f === fill}>${FILL_LABELS[f]}</option>`)}
+        ${FILL_KINDS.map((f) => html`<option value=${f} ?selected=${f === fill}>${FILL_LABELS[f][0]}</option>`)}
       </select>
       ${kit.problemText(['fill'])}
     </div>
+    <p class="hint">${FILL_LABELS[fill]?.[1] ?? ''}</p>
     ${fill === 'conformal' && small && list.length ? html`
       <p class="hint" data-small-cells=${small.dropped}>Conformal fill: ${small.dropped} cut ${small.dropped === 1 ? 'cell' : 'cells'} too small for this time step
         ${small.dropped === 1 ? 'was' : 'were'} put into the metal; a cut keeping at least ${formatSig(small.threshold, 3)} of its ${polarization === 'TEz' ? 'cell' : 'edge'} is always kept.</p>` : nothing}

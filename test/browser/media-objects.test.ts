@@ -143,6 +143,63 @@ describe('objects', () => {
     expect(errors).toEqual([]); // common practice, no source
   });
 
+  it('draws a rectangle and polygons, moves and reshapes by the pointer, and edits from the keyboard', async () => {
+    const { page, errors } = await openPage();
+    const canvas = page.locator('gg-field-view canvas.map');
+    const box = await canvas.boundingBox();
+    if (!box) throw new Error('the field canvas has no box');
+    const { nx, ny } = demoScenario().grid;
+    const at = (i: number, j: number) => [box.x + ((i + 0.5) / nx) * box.width, box.y + box.height - ((j + 0.5) / ny) * box.height] as const;
+    const drag = async (from: readonly [number, number], to: readonly [number, number]) => {
+      await page.mouse.move(...from);
+      await page.mouse.down();
+      await page.mouse.move((from[0] + to[0]) / 2, (from[1] + to[1]) / 2, { steps: 3 });
+      await page.mouse.move(...to, { steps: 3 });
+      await page.mouse.up();
+    };
+    const objects = async () => (await draft(page)).objects ?? [];
+    const mm = (n: number) => Number((n * 1e-3).toPrecision(12)); // node n of 1 mm cells, in metres
+
+    await page.locator('gg-field-view button', { hasText: 'Rectangle' }).click();
+    await drag(at(40, 200), at(60, 230));
+    await expect.poll(async () => (await objects()).length).toBe(1); // common practice, no source
+    expect((await objects())[0]).toMatchObject({ shape: 'rectangle', x0: mm(40), y0: mm(200), x1: mm(60), y1: mm(230) }); // corner to corner
+
+    await page.locator('gg-field-view button', { hasText: 'Polygon' }).click();
+    await page.mouse.click(...at(40, 40));
+    await page.mouse.click(...at(70, 40));
+    await page.mouse.dblclick(...at(55, 70));
+    await expect.poll(async () => (await objects()).length).toBe(2); // a double-click closes the polygon
+    expect((await objects())[1]).toMatchObject({ shape: 'polygon', points: [[mm(40), mm(40)], [mm(70), mm(40)], [mm(55), mm(70)]] }); // the repeated click of the double-click adds no vertex
+
+    await page.mouse.click(...at(200, 40));
+    await page.mouse.click(...at(230, 40));
+    await page.mouse.click(...at(215, 70));
+    await page.keyboard.press('Enter');
+    await expect.poll(async () => (await objects()).length).toBe(3); // Enter closes it too
+    await page.keyboard.press('Delete');
+    await expect.poll(async () => (await objects()).length).toBe(2); // the new polygon was selected; Delete removes it
+
+    await drag(at(50, 215), at(60, 215));
+    await expect.poll(async () => (await objects())[0]).toMatchObject({ x0: mm(50), x1: mm(70), y0: mm(200), y1: mm(230) }); // moved 10 cells right, whole
+    await drag(at(70, 230), at(80, 240));
+    await expect.poll(async () => (await objects())[0]).toMatchObject({ x0: mm(50), y0: mm(200), x1: mm(80), y1: mm(240) }); // the corner handle moved, the opposite corner stayed
+
+    await canvas.focus();
+    await page.keyboard.press('n');
+    await page.keyboard.press('ArrowRight');
+    await expect.poll(async () => (await objects())[1]).toMatchObject({ points: [[mm(41), mm(40)], [mm(71), mm(40)], [mm(56), mm(70)]] }); // N selected the polygon, an arrow moved it one cell
+    await page.keyboard.press('n');
+    await page.keyboard.press('+');
+    await expect.poll(async () => (await objects())[0]).toMatchObject({ x0: mm(49), y0: mm(199), x1: mm(81), y1: mm(241) }); // + grows every side by a cell
+    await page.keyboard.press('Delete');
+    await expect.poll(async () => (await objects()).map((o) => o.shape)).toEqual(['polygon']); // common practice, no source
+    await page.keyboard.press('a');
+    await expect.poll(async () => (await objects()).length).toBe(2); // A adds an object of the tool's shape
+    expect((await objects())[1].shape).toBe('polygon'); // common practice, no source
+    expect(errors).toEqual([]); // common practice, no source
+  });
+
   it('with two objects says there is no exact reference and opens the convergence study', async () => {
     const { page, errors } = await openPage();
     await page.locator('gg-setup button', { hasText: 'Add circle' }).click();
