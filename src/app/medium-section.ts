@@ -9,10 +9,11 @@ import { html, nothing, type TemplateResult } from 'lit';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import type { PathSegment } from '../scenario/path.ts';
 import { MAX_POLES, POLE_KINDS } from '../scenario/schema.ts';
-import type { Pole, PoleKind } from '../scenario/types.ts';
+import type { PoleKind } from '../scenario/types.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import type { UnitKind } from './draft.ts';
 import type { PermittivityCurves } from './permittivity-curves.ts';
+import { newPole } from './new-pole.ts';
 import './permittivity-chart.ts';
 import { idOf, type FieldKit } from './setup-fields.ts';
 import type { ThemeName } from './theme.ts';
@@ -29,25 +30,6 @@ const POLE_FIELDS: Record<PoleKind, PoleField[]> = {
     { key: 'delta', label: 'Damping δ', fixedUnit: '1/s' },
   ],
 };
-
-/** 12 significant digits, so 2π·f0 is written without float noise. */
-const tidy = (x: number) => Number(x.toPrecision(12));
-
-/**
- * A new pole of `kind` placed around the pulse's centre frequency f0 (Hz), so that it
- * shows in the band: a Debye relaxation at f0 (τ = 1/(2πf0)), a Drude plasma frequency of
- * half 2πf0 with γ a tenth of it, a Lorentz resonance at twice f0 with δ a twentieth of
- * ω0. Δε carries over from `from` when both kinds have one.
- */
-export function newPole(kind: PoleKind, f0Hz: number | undefined, from?: Record<string, unknown>): Pole {
-  const w0 = 2 * Math.PI * (f0Hz !== undefined && f0Hz > 0 ? f0Hz : 1e9);
-  const kept = typeof from?.deltaEps === 'number' ? from.deltaEps : undefined;
-  switch (kind) {
-    case 'debye': return { kind, deltaEps: kept ?? 10, tau: tidy(1 / w0) };
-    case 'drude': return { kind, omegaP: tidy(w0 / 2), gamma: tidy(w0 / 20) };
-    case 'lorentz': return { kind, deltaEps: kept ?? 2, omega0: tidy(2 * w0), delta: tidy(w0 / 10) };
-  }
-}
 
 function poleRow(kit: FieldKit, base: PathSegment[], k: number, f0Hz: number | undefined, owner: string): TemplateResult {
   const path = [...base, 'poles', k];
