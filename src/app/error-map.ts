@@ -9,7 +9,7 @@ import { AnimationFrameController, ResizeController } from './controllers.ts';
 import { canvasesToPng, saveBlob } from './download.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { mapMenu } from './map-plan.ts';
-import { drawObjects } from './object-drawing.ts';
+import { drawObjects, objectNameAnchors } from './object-drawing.ts';
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
@@ -173,7 +173,7 @@ export class GgErrorMap extends LitElement {
     const dpr = window.devicePixelRatio || 1;
     drawAbsorberOutline(ctx, g, palette, dpr);
     drawObjects(ctx, g, s.objects ?? [], palette, dpr);
-    drawMarkers(ctx, g, s, palette, dpr);
+    drawMarkers(ctx, g, s, palette, dpr, undefined, undefined, objectNameAnchors(g, s.objects ?? []));
     if (this.axes) paintAxesCanvas(this.axes, this.canvas, s.grid, this.lengthUnit, palette);
   }
 

@@ -12,7 +12,7 @@ import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridG
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
 import { fieldNames } from './field-names.ts';
 import { MarkerEditor } from './marker-editor.ts';
-import { drawObjects } from './object-drawing.ts';
+import { drawObjects, objectNameAnchors } from './object-drawing.ts';
 import { ObjectEditor } from './object-editor.ts';
 import { drawableObject, type ObjectShape } from './object-shapes.ts';
 import type { ShownFrame } from './store.ts';
@@ -246,8 +246,9 @@ export class GgFieldView extends LitElement {
     }
     drawAbsorberOutline(ctx, g, palette, dpr);
     const paint = this.tool === 'markers' ? {} : this.shapes.paint;
-    drawObjects(ctx, g, this.objects.map(drawableObject), palette, dpr, { ...paint, faulty: this.faultyObjects });
-    this.labels = drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected);
+    const objects = this.objects.map(drawableObject);
+    drawObjects(ctx, g, objects, palette, dpr, { ...paint, faulty: this.faultyObjects });
+    this.labels = drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected, objectNameAnchors(g, objects));
     const line = this.editor.drawing;
     if (line) {
       const a = g.toPixel(line.x0, line.y0);

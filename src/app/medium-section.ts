@@ -31,6 +31,14 @@ const POLE_FIELDS: Record<PoleKind, PoleField[]> = {
   ],
 };
 
+/** The pole's angular rates written as frequencies (ω/2π), so rad/s can be read against the band. */
+function asFrequencies(pole: Record<string, unknown>, kind: PoleKind): TemplateResult | typeof nothing {
+  const rates = POLE_FIELDS[kind].filter((f) => f.fixedUnit !== undefined && typeof pole[f.key] === 'number' && Number.isFinite(pole[f.key]));
+  if (rates.length === 0) return nothing;
+  const text = rates.map((f) => `${f.label.split(' ').pop()}/2π = ${formatSI((pole[f.key] as number) / (2 * Math.PI), 'Hz')}`).join(', ');
+  return html`<p class="hint">${text}</p>`;
+}
+
 function poleRow(kit: FieldKit, base: PathSegment[], k: number, f0Hz: number | undefined, owner: string): TemplateResult {
   const path = [...base, 'poles', k];
   const pole = kit.get(path) as Record<string, unknown> | undefined;
@@ -51,6 +59,7 @@ function poleRow(kit: FieldKit, base: PathSegment[], k: number, f0Hz: number | u
         ${kit.problemText([...path, 'kind'])}
       </div>
       ${(kind ? POLE_FIELDS[kind] : []).map((f) => kit.field(f.label, [...path, f.key], { unit: f.unit, fixedUnit: f.fixedUnit }))}
+      ${kind ? asFrequencies(pole ?? {}, kind) : nothing}
       <button type="button" class="small end" aria-label="Remove pole ${k + 1} of ${owner}" @click=${() => {
         kit.host.clearTyping();
         const rest = poles.filter((_p, n) => n !== k);
@@ -62,7 +71,11 @@ function poleRow(kit: FieldKit, base: PathSegment[], k: number, f0Hz: number | u
 
 /**
  * ε∞, σ and the poles of the medium at `base` (["medium"] or an object's material);
- * `owner` names it for screen readers ("the medium", "object 2").
+ * `owner` names it for screen readers ("the medium", "object 2"); new poles start near
+ * f0Hz (Hz).
+ *
+ * @example
+ * html`${mediumFields(kit, ['objects', 0, 'material'], 1e10, 'object 1')}`;
  */
 export function mediumFields(kit: FieldKit, base: PathSegment[], f0Hz: number | undefined, owner: string): TemplateResult {
   const poles = kit.list([...base, 'poles']);
@@ -107,6 +120,13 @@ export interface MediumView {
   theme: ThemeName;
 }
 
+/**
+ * The Medium section of the form: its fields, and for a lossy or dispersive medium its
+ * figures and the εr(ω) chart.
+ *
+ * @example
+ * html`${mediumSection(kit, { derived, curves: cache.of(scenario), theme: 'light' })}`;
+ */
 export function mediumSection(kit: FieldKit, v: MediumView): TemplateResult {
   const lossy = v.curves !== undefined;
   return kit.section('Medium', ['medium'], html`

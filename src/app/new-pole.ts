@@ -11,7 +11,10 @@ const tidy = (x: number) => Number(x.toPrecision(12));
  * A new pole of `kind` placed around the pulse's centre frequency f0 (Hz), so that it
  * shows in the band: a Debye relaxation at f0 (τ = 1/(2πf0)), a Drude plasma frequency of
  * half 2πf0 with γ a tenth of it, a Lorentz resonance at twice f0 with δ a twentieth of
- * ω0. Δε carries over from `from` when both kinds have one.
+ * ω0. Δε carries over from `from` when both kinds have one. Rates in rad/s, τ in s.
+ *
+ * @example
+ * newPole('debye', 1e10); // { kind: 'debye', deltaEps: 10, tau: 1.59154943092e-11 }
  */
 export function newPole(kind: PoleKind, f0Hz: number | undefined, from?: Record<string, unknown>): Pole {
   const w0 = 2 * Math.PI * (f0Hz !== undefined && f0Hz > 0 ? f0Hz : 1e9);

@@ -12,7 +12,12 @@ export const noExactStyles = css`
   .no-exact p { margin: 0; flex: 1 1 16rem; }
 `;
 
-/** The note, with a button that opens the convergence study; `host` sends the event. */
+/**
+ * The note, with a button that opens the convergence study; `host` sends the event.
+ *
+ * @example
+ * html`${exactKind(scenario) === 'none' ? noExactNote(this) : nothing}`;
+ */
 export function noExactNote(host: HTMLElement): TemplateResult {
   const open = () => host.dispatchEvent(new CustomEvent('gg-open-study', { detail: { id: 'convergence' }, bubbles: true, composed: true }));
   return html`

@@ -23,6 +23,25 @@ export interface ObjectPaint {
   faulty?: ReadonlySet<number>;
 }
 
+/**
+ * Where each named object's name goes on the map: the top centre of its outline's box,
+ * canvas px (the label placement finds a free spot around it). Unnamed objects have none.
+ *
+ * @example
+ * objectNameAnchors(g, [{ name: 'post', shape: 'circle', x: 0.1, y: 0.1, radius: 0.01, material: 'pec' }]); // [{ text: 'post', at: g.toPixel(0.1, 0.11) }]
+ */
+export function objectNameAnchors(g: GridGeometry, objects: readonly (SceneObject | undefined)[]): { text: string; at: [number, number] }[] {
+  return objects.flatMap((o) => {
+    if (!o?.name) return [];
+    const pts = o.shape === 'circle' ? [[o.x, o.y + o.radius]] : o.shape === 'rectangle' ? handlesOf(o) : o.points;
+    let top = -Infinity;
+    let x0 = Infinity;
+    let x1 = -Infinity;
+    for (const [x, y] of pts) { top = Math.max(top, y); x0 = Math.min(x0, x); x1 = Math.max(x1, x); }
+    return [{ text: o.name, at: g.toPixel((x0 + x1) / 2, top) }];
+  });
+}
+
 function tracePath(ctx: CanvasRenderingContext2D, g: GridGeometry, o: SceneObject, open = false): void {
   ctx.beginPath();
   if (o.shape === 'circle') {
@@ -72,6 +91,9 @@ function handle(ctx: CanvasRenderingContext2D, q: [number, number], p: Palette, 
 /**
  * Paints `objects` (index for index with the draft; undefined entries are skipped) on a
  * map of geometry `g`, later objects over earlier ones as they cover them in the grid.
+ *
+ * @example
+ * drawObjects(ctx, GridGeometry.of(scenario, canvas.width, canvas.height), scenario.objects ?? [], palettes.light, devicePixelRatio);
  */
 export function drawObjects(
   ctx: CanvasRenderingContext2D, g: GridGeometry, objects: readonly (SceneObject | undefined)[], p: Palette, dpr: number, paint: ObjectPaint = {},

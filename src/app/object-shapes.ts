@@ -45,18 +45,24 @@ export function drawableObject(raw: unknown): SceneObject | undefined {
 
 const NONE: unknown[] = [];
 
-/** The draft's `objects` list as it stands, the same array while the draft is unchanged (empty when missing or not a list). */
+/**
+ * The draft's `objects` list as it stands, the same array while the draft is unchanged
+ * (empty when missing or not a list).
+ *
+ * @example
+ * draftObjectList({ objects: 'none' }); // []
+ */
 export function draftObjectList(draft: Draft): unknown[] {
   const list = readAt(draft, ['objects']);
   return Array.isArray(list) ? list : NONE;
 }
 
-/** The draft's objects, index for index, each drawable or undefined. */
-export function drawableObjects(draft: Draft): (SceneObject | undefined)[] {
-  return draftObjectList(draft).map(drawableObject);
-}
-
-/** The list to write back: left out of the scenario when it is empty. */
+/**
+ * The list to write back: left out of the scenario when it is empty.
+ *
+ * @example
+ * objectsValue([]); // undefined
+ */
 export function objectsValue(list: unknown[]): unknown[] | undefined {
   return list.length ? list : undefined;
 }
@@ -64,7 +70,10 @@ export function objectsValue(list: unknown[]): unknown[] | undefined {
 /**
  * The grid and source position of a draft as far as they are numbers, with stand-ins
  * (1 mm cells, 100 nodes, 10 absorber cells, the source at the origin) for the rest, so a
- * new object can be placed while other fields are still wrong.
+ * new object can be placed while other fields are still wrong. Lengths in m.
+ *
+ * @example
+ * placementOfDraft({ grid: { dx: 0.002 } }).grid.dx; // 0.002
  */
 export function placementOfDraft(draft: Draft): { grid: CellGrid; source: [number, number] } {
   const num = (path: (string | number)[], fallback: number, positive = true) => {
@@ -83,6 +92,10 @@ export function placementOfDraft(draft: Draft): { grid: CellGrid; source: [numbe
 /**
  * Where a new object goes, m: above the source by a quarter of the interior, shifted
  * sideways by 12 cells for each object already there so that new ones do not pile up.
+ * `g` in nodes and m, `source` in m; kept 8 cells inside the interior.
+ *
+ * @example
+ * newObjectSpot({ nx: 300, ny: 300, dx: 0.001, dy: 0.001, cells: 10 }, [0.15, 0.15], 0); // [0.126, 0.22]
  */
 export function newObjectSpot(g: CellGrid, source: [number, number], count: number): [number, number] {
   const { nx, ny, dx, dy, cells } = g;
@@ -95,8 +108,12 @@ export function newObjectSpot(g: CellGrid, source: [number, number], count: numb
 }
 
 /**
- * A new object of `shape` centred on `at`: a circle of radius 5 cells, a rectangle of
- * 12 × 8 cells, or a triangle about 12 cells across; named after its shape.
+ * A new object of `shape` centred on `at` (m): a circle of radius 5 cells, a rectangle of
+ * 12 × 8 cells, or a triangle about 12 cells across; named after its shape, made of a
+ * plain dielectric.
+ *
+ * @example
+ * newObject('circle', [0.1, 0.1], { dx: 0.001, dy: 0.001 }, []); // { name: 'circle 1', shape: 'circle', x: 0.1, y: 0.1, radius: 0.005, … }
  */
 export function newObject(shape: ObjectShape, at: [number, number], g: Pick<CellGrid, 'dx' | 'dy'>, taken: readonly string[]): SceneObject {
   const [x, y] = at;
@@ -113,12 +130,22 @@ export function newObject(shape: ObjectShape, at: [number, number], g: Pick<Cell
   }
 }
 
-/** The names the draft's objects already use. */
+/**
+ * The names the draft's objects already use.
+ *
+ * @example
+ * objectNames([{ name: 'post' }, {}, 3]); // ['post']
+ */
 export function objectNames(list: readonly unknown[]): string[] {
   return list.map((o) => (o && typeof o === 'object' ? (o as { name?: unknown }).name : undefined)).filter((n): n is string => typeof n === 'string');
 }
 
-/** Only the fields that place an object (no name or material), to merge into the draft's entry. */
+/**
+ * Only the fields that place an object (no name or material), to merge into the draft's entry.
+ *
+ * @example
+ * geometryOf({ shape: 'circle', x: 0.1, y: 0.1, radius: 0.01, material: 'pec' }); // { x: 0.1, y: 0.1, radius: 0.01 }
+ */
 export function geometryOf(o: SceneObject): Record<string, unknown> {
   switch (o.shape) {
     case 'circle': return { x: o.x, y: o.y, radius: o.radius };
@@ -127,7 +154,12 @@ export function geometryOf(o: SceneObject): Record<string, unknown> {
   }
 }
 
-/** The object moved by (mx, my), m. */
+/**
+ * The object moved by (mx, my), m.
+ *
+ * @example
+ * translated({ shape: 'circle', x: 0.1, y: 0.1, radius: 0.01, material: 'pec' }, 0.02, 0).x; // 0.12
+ */
 export function translated(o: SceneObject, mx: number, my: number): SceneObject {
   switch (o.shape) {
     case 'circle': return { ...o, x: tidy(o.x + mx), y: tidy(o.y + my) };
@@ -139,6 +171,9 @@ export function translated(o: SceneObject, mx: number, my: number): SceneObject 
 /**
  * The handles that reshape an object, m: a circle's point on its rim towards +x, a
  * rectangle's four corners (x0 y0, x1 y0, x1 y1, x0 y1), a polygon's vertices.
+ *
+ * @example
+ * handlesOf({ shape: 'circle', x: 0.1, y: 0.1, radius: 0.01, material: 'pec' }); // [[0.11, 0.1]]
  */
 export function handlesOf(o: SceneObject): [number, number][] {
   switch (o.shape) {
@@ -148,7 +183,13 @@ export function handlesOf(o: SceneObject): [number, number][] {
   }
 }
 
-/** The object with handle `k` dragged to (x, y), m (a circle's radius becomes the distance from its centre). */
+/**
+ * The object with handle `k` (of handlesOf) dragged to (x, y), m: a circle's radius becomes
+ * the distance from its centre, a rectangle's corner moves and the opposite one stays.
+ *
+ * @example
+ * withHandleAt({ shape: 'circle', x: 0, y: 0, radius: 1, material: 'pec' }, 0, 3, 4).radius; // 5
+ */
 export function withHandleAt(o: SceneObject, k: number, x: number, y: number): SceneObject {
   switch (o.shape) {
     case 'circle': return { ...o, radius: tidy(Math.hypot(x - o.x, y - o.y)) };
@@ -166,7 +207,10 @@ export function withHandleAt(o: SceneObject, k: number, x: number, y: number): S
  * The object grown (cells > 0) or shrunk (cells < 0) by whole cells on every side: a
  * circle's radius by cells·min(dx, dy), a rectangle's sides by cells·dx and cells·dy, a
  * polygon scaled about the centre of its bounding box so that the box grows likewise.
- * Returns the object unchanged when shrinking would leave nothing.
+ * Returns the object unchanged when shrinking would leave nothing. dx, dy in m.
+ *
+ * @example
+ * grown({ shape: 'circle', x: 0, y: 0, radius: 0.01, material: 'pec' }, 1, 0.001, 0.001).radius; // 0.011
  */
 export function grown(o: SceneObject, cells: number, dx: number, dy: number): SceneObject {
   switch (o.shape) {
@@ -196,13 +240,23 @@ export function grown(o: SceneObject, cells: number, dx: number, dy: number): Sc
   }
 }
 
-/** A short description of an object for screen readers and the map's readout. */
+/**
+ * A short description of an object for screen readers.
+ *
+ * @example
+ * objectLabel({ name: 'post', shape: 'circle', x: 0, y: 0, radius: 1, material: 'pec' }, 0); // 'object “post” (circle)'
+ */
 export function objectLabel(o: SceneObject | undefined, k: number): string {
   const what = o ? o.shape : 'object';
   return o?.name ? `object “${o.name}” (${what})` : `object ${k + 1} (${what})`;
 }
 
-/** Indices of the objects a list of problems names (paths "objects[k]…"), each once, ascending. */
+/**
+ * Indices of the objects a list of problems names (paths "objects[k]…"), each once, ascending.
+ *
+ * @example
+ * faultyObjectIndices([{ path: 'objects[2].radius', message: '…' }]); // [2]
+ */
 export function faultyObjectIndices(problems: readonly Problem[]): number[] {
   const found = new Set<number>();
   for (const p of problems) {

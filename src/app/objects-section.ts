@@ -114,6 +114,12 @@ function objectGroup(kit: FieldKit, v: ObjectsView, list: unknown[], k: number, 
     </div>`;
 }
 
+/**
+ * The Objects section of the form: the fill, one group per object, and Add buttons.
+ *
+ * @example
+ * html`${objectsSection(kit, { counts: controller.counts, countsPending: controller.pending, f0Hz: 1e10 })}`;
+ */
 export function objectsSection(kit: FieldKit, v: ObjectsView): TemplateResult {
   const list = draftObjectList(kit.host.draft);
   const fill = (kit.get(['fill']) as Fill | undefined) ?? 'staircase';

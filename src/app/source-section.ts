@@ -77,7 +77,7 @@ export function sourceSection(kit: FieldKit, preview: Waveform | undefined, them
     ${kit.field('Delay t0', [...BASE, 't0'], { unit: 'time', placeholder: timeText(defaults.t0) })}
     ${kit.problemText(BASE)}
     <div class="field full-row">
-      <gg-spectrum-preview .waveform=${preview} theme=${theme}></gg-spectrum-preview>
+      <gg-spectrum-preview .waveform=${preview} source=${names.source} theme=${theme}></gg-spectrum-preview>
     </div>
   `);
 }
