@@ -25,6 +25,8 @@ import { Store, type AppState } from './store.ts';
 import './report-panel.ts';
 import './studies-panel.ts';
 import { controlStyles, themeTokens } from './theme.ts';
+import { draftObjectList, faultyObjectIndices } from './object-shapes.ts';
+import type { GgStudiesPanel } from './studies-panel.ts';
 
 const EMPTY_MAPS: ErrorMap[] = [];
 
@@ -78,6 +80,9 @@ export class GgApp extends LitElement {
 
   @query('#open-file') private fileInput!: HTMLInputElement;
   @query('gg-results-panel') private resultsPanel!: GgResultsPanel;
+  @query('gg-studies-panel') private studiesPanel!: GgStudiesPanel;
+  /** The objects the check found wrong, kept as one set while they stay the same. */
+  private faulty: { key: string; set: ReadonlySet<number> } = { key: '', set: new Set() };
 
   constructor() {
     super();
@@ -114,7 +119,26 @@ export class GgApp extends LitElement {
       e.stopPropagation();
       this.controller.applyScenario(e.detail, 'Applied the study’s recommendation to the set-up');
     });
+    new EventController<CustomEvent<{ id: string }>>(this, () => this, 'gg-open-study', (e) => {
+      e.stopPropagation();
+      void this.openStudy(e.detail.id);
+    });
     if (check.ok) writeLink(check.scenario);
+  }
+
+  /** Shows the Studies section on the tab of one study (e.g. the convergence study). */
+  async openStudy(id: string): Promise<void> {
+    this.controller.setView('studies');
+    await this.updateComplete;
+    this.studiesPanel?.showStudy(id);
+  }
+
+  private faultyObjects(): ReadonlySet<number> {
+    const { check } = this.state;
+    const indices = check.ok ? [] : faultyObjectIndices(check.problems);
+    const key = indices.join(',');
+    if (key !== this.faulty.key) this.faulty = { key, set: new Set(indices) };
+    return this.faulty.set;
   }
 
   private get state(): AppState {
@@ -225,7 +249,7 @@ export class GgApp extends LitElement {
       <header>
         <div class="brand">
           <h1>grid<span>gauge</span></h1>
-          <p class="tagline">2D TMz Yee grid with CPML against the exact field of a pulsed line current</p>
+          <p class="tagline">2D Yee grid (TMz or TEz) with CPML, media and objects, against the exact field of a pulsed line source</p>
         </div>
         <div class="actions" role="toolbar" aria-label="Scenario files, sharing and theme">
           <button @click=${() => this.fileInput.click()}>Open scenario…</button>
@@ -255,7 +279,7 @@ export class GgApp extends LitElement {
         <div class="view columns" id="view-setup" role="tabpanel" aria-labelledby="tab-setup" ?hidden=${s.view !== 'setup'}>
           <div class="column">
             <h2 id="setup-heading">Set-up</h2>
-            <gg-setup .draft=${s.draft} .problems=${s.check.ok ? [] : s.check.problems} .derived=${s.derived} .warnings=${s.warnings} .units=${s.units}
+            <gg-setup .draft=${s.draft} .problems=${s.check.ok ? [] : s.check.problems} .scenario=${s.check.ok ? s.check.scenario : undefined} .derived=${s.derived} .warnings=${s.warnings} .units=${s.units}
               .maps=${nextMaps?.length ?? 0} .cellRate=${s.measuredCellRate} theme=${s.theme}
               @gg-units=${(e: CustomEvent<DisplayUnits>) => this.controller.setUnits(e.detail)}
               @gg-load-demo=${() => this.controller.loadDemo()}></gg-setup>
@@ -263,6 +287,7 @@ export class GgApp extends LitElement {
           <section class="card" aria-labelledby="field-heading">
             <div class="card-head"><h2 id="field-heading">Field</h2></div>
             <gg-field-view .scenario=${shown} .frames=${this.store} theme=${s.theme} lengthUnit=${s.units.length}
+              .objects=${draftObjectList(s.draft)} .faultyObjects=${this.faultyObjects()}
               ?running=${s.run.phase === 'running' || s.run.phase === 'paused' || s.run.phase === 'stopping'}></gg-field-view>
           </section>
         </div>
@@ -274,7 +299,7 @@ export class GgApp extends LitElement {
               @gg-map-frequency=${(e: CustomEvent<{ hz: number }>) => this.controller.setMapFrequency(e.detail.hz)}></gg-error-map>
           </section>
           <section class="card compare" aria-labelledby="compare-heading">
-            <gg-results-panel .results=${s.results} ?stale=${stale} .lineFrequency=${s.lineFrequency} theme=${s.theme}
+            <gg-results-panel .results=${s.results} .scenario=${s.resultsScenario} ?stale=${stale} .lineFrequency=${s.lineFrequency} theme=${s.theme}
               @gg-export=${(e: CustomEvent<{ name: RunFileName }>) => this.exportRunFile(e.detail.name)}
               @gg-line-frequency=${(e: CustomEvent<{ index: number }>) => this.controller.setLineFrequency(e.detail.index)}></gg-results-panel>
           </section>

@@ -52,6 +52,7 @@ export const UNIT_CHOICES = {
   length: ['m', 'mm', 'µm'],
   frequency: ['Hz', 'kHz', 'MHz', 'GHz', 'THz'],
   time: ['s', 'ms', 'µs', 'ns', 'ps', 'fs'],
+  conductivity: ['S/m', 'mS/m'],
 } as const;
 
 export type UnitKind = keyof typeof UNIT_CHOICES;
@@ -60,15 +61,16 @@ export type UnitKind = keyof typeof UNIT_CHOICES;
 export type DisplayUnits = { [K in UnitKind]: (typeof UNIT_CHOICES)[K][number] };
 
 /** The SI unit of each kind, as the scenario model's messages write it. */
-export const SI_UNIT: Record<UnitKind, string> = { length: 'm', frequency: 'Hz', time: 's' };
+export const SI_UNIT: Record<UnitKind, string> = { length: 'm', frequency: 'Hz', time: 's', conductivity: 'S/m' };
 
-export const DEFAULT_UNITS: DisplayUnits = { length: 'mm', frequency: 'GHz', time: 'ps' };
+export const DEFAULT_UNITS: DisplayUnits = { length: 'mm', frequency: 'GHz', time: 'ps', conductivity: 'S/m' };
 
 /** Power of ten of each unit in SI. */
 export const UNIT_EXPONENT: Record<string, number> = {
   m: 0, mm: -3, 'µm': -6,
   Hz: 0, kHz: 3, MHz: 6, GHz: 9, THz: 12,
   s: 0, ms: -3, 'µs': -6, ns: -9, ps: -12, fs: -15,
+  'S/m': 0, 'mS/m': -3,
 };
 
 const NUMERAL = /^([+-]?(?:\d+\.?\d*|\.\d+))(?:[eE]([+-]?\d+))?$/;

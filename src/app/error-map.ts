@@ -1,6 +1,7 @@
 import { css, html, LitElement, nothing, type PropertyValues } from 'lit';
 import { customElement, property, query, state } from 'lit/decorators.js';
 import type { ErrorMap } from '../compare/error-map.ts';
+import { exactKind } from '../compare/reference.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { LUT_SIZE, sequentialLut } from './colormap.ts';
@@ -8,6 +9,7 @@ import { AnimationFrameController, ResizeController } from './controllers.ts';
 import { canvasesToPng, saveBlob } from './download.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { mapMenu } from './map-plan.ts';
+import { drawObjects, objectNameAnchors } from './object-drawing.ts';
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
@@ -35,6 +37,7 @@ function fittedRange(m: ErrorMap, cells: number): [number, number] {
  * |FDTD/exact − 1| in dB over the whole grid at one analysis frequency, from the run's
  * full-grid running DFTs: dispersion anisotropy shows as error rising faster along the axes
  * than the diagonals, absorber reflections as ripples. Dark is small error, bright is large.
+ * The scenario's objects are outlined over it.
  * The menu switches between the maps the last run made; a frequency without one says the
  * next run maps it, and the picture is never of another frequency than the one named.
  */
@@ -109,6 +112,7 @@ export class GgErrorMap extends LitElement {
       <p class="readout muted num"></p>
       ${this.frequencies.length === 0 && this.maps.length === 0 ? html`<p class="note muted">Add an analysis frequency in Set-up to get an error map.</p>` : nothing}
       ${shown && !map ? html`<p class="note muted" data-note="next-run">${shown.note}</p>` : nothing}
+      ${this.scenario && exactKind(this.scenario) === 'none' ? html`<p class="note muted" data-note="no-exact">No exact reference for these objects, so the map has no errors to show: use the convergence study.</p>` : nothing}
     `;
   }
 
@@ -168,7 +172,8 @@ export class GgErrorMap extends LitElement {
     const g = GridGeometry.of(s, this.canvas.width, this.canvas.height);
     const dpr = window.devicePixelRatio || 1;
     drawAbsorberOutline(ctx, g, palette, dpr);
-    drawMarkers(ctx, g, s, palette, dpr);
+    drawObjects(ctx, g, s.objects ?? [], palette, dpr);
+    drawMarkers(ctx, g, s, palette, dpr, undefined, undefined, objectNameAnchors(g, s.objects ?? []));
     if (this.axes) paintAxesCanvas(this.axes, this.canvas, s.grid, this.lengthUnit, palette);
   }
 

@@ -8,7 +8,7 @@
 import { SI_UNIT, UNIT_EXPONENT, type UnitKind } from './draft.ts';
 
 /** How the model names each SI unit in running text ("in metres"). */
-const SI_WORDS: Record<UnitKind, string> = { length: 'metres', frequency: 'Hz', time: 'seconds' };
+const SI_WORDS: Record<UnitKind, string> = { length: 'metres', frequency: 'Hz', time: 'seconds', conductivity: 'S/m' };
 
 const NUMBER = String.raw`[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?`;
 

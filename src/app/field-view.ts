@@ -10,7 +10,11 @@ import { FilmPlayer, type FrameSource } from './film-player.ts';
 import type { Box } from './label-placement.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
+import { fieldNames } from './field-names.ts';
 import { MarkerEditor } from './marker-editor.ts';
+import { drawObjects, objectNameAnchors } from './object-drawing.ts';
+import { ObjectEditor } from './object-editor.ts';
+import { drawableObject, type ObjectShape } from './object-shapes.ts';
 import type { ShownFrame } from './store.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 
@@ -19,17 +23,41 @@ export type { FrameSource } from './film-player.ts';
 /** Dynamic range of the dB scale. */
 const DB_RANGE = 80;
 
+/** What the pointer does on the map: edit the markers, or draw and edit objects of a shape. */
+type Tool = 'markers' | ObjectShape;
+
+const TOOLS: { tool: Tool; label: string }[] = [
+  { tool: 'markers', label: 'Probes & lines' }, { tool: 'circle', label: 'Circle' },
+  { tool: 'rectangle', label: 'Rectangle' }, { tool: 'polygon', label: 'Polygon' },
+];
+
+const OBJECT_KEYS = 'keys <N> next object, arrows move it (<Shift> ×10), <+> <−> resize, <A> add, <Delete> remove, <Esc> let go';
+const HINTS: Record<Tool, string> = {
+  markers: 'Click: add probe · drag: draw line · drag a marker: move it · keys <N> next marker, arrows move (<Shift> ×10), <A> add probe, <Delete> remove',
+  circle: `Drag from a centre outwards: new circle · drag an object: move it · drag a handle: resize · ${OBJECT_KEYS}`,
+  rectangle: `Drag corner to corner: new rectangle · drag an object: move it · drag a corner: resize · ${OBJECT_KEYS}`,
+  polygon: `Click the vertices, double-click or <Enter> to close · drag an object: move it · drag a vertex: reshape · ${OBJECT_KEYS}`,
+};
+
+/** A hint with its <key> names set as keys. */
+function hintText(text: string) {
+  return text.split(/(<[^>]+>)/).map((part) => (part.startsWith('<') ? html`<kbd>${part.slice(1, -1)}</kbd>` : part));
+}
+
 /**
- * Ez over the whole grid as a heat map (diverging colours, symmetric about zero, linear or
- * dB) with x and y axes in the chosen length unit, the absorber outline, source, probes and
- * lines. Replay is the FilmPlayer's job, editing the markers the MarkerEditor's; this
- * component paints. Edits go up as `gg-edit` events; frames are drawn in requestAnimationFrame.
+ * The field (Ez in TMz, Hz in TEz) over the whole grid as a heat map (diverging colours,
+ * symmetric about zero, linear or dB) with x and y axes in the chosen length unit, the
+ * absorber outline, the objects, source, probes and lines. Replay is the FilmPlayer's job,
+ * editing the markers the MarkerEditor's and the objects the ObjectEditor's (the tool row
+ * picks which has the pointer); this component paints. Edits go up as `gg-edit` events; frames are drawn in requestAnimationFrame.
  */
 @customElement('gg-field-view')
 export class GgFieldView extends LitElement {
   static styles = [controlStyles, gridMapStyles, css`
     canvas.map { touch-action: none; cursor: crosshair; }
     canvas.map.grab { cursor: grab; }
+    .tools.draw { gap: 0.3rem; }
+    .tools.draw button[aria-pressed='true'] { border-color: var(--gg-accent); box-shadow: inset 0 -2px 0 var(--gg-accent); font-weight: 600; }
     .legend .scale-label { white-space: normal; }
     .keys { font-size: 0.75rem; margin: 0.2rem 0 0; }
     kbd { font-family: var(--gg-mono); font-size: 0.72rem; border: 1px solid var(--gg-border); border-radius: 3px; padding: 0 0.25rem; }
@@ -43,8 +71,13 @@ export class GgFieldView extends LitElement {
   @property() lengthUnit = 'mm';
   /** True while a run is stepping: the view follows the live frames. */
   @property({ type: Boolean }) running = false;
+  /** The draft's objects as they stand, outlined over the map (some may not be drawable yet). */
+  @property({ attribute: false }) objects: readonly unknown[] = [];
+  /** Indices of objects the scenario model found wrong. */
+  @property({ attribute: false }) faultyObjects: ReadonlySet<number> = new Set();
 
   @state() private scale: 'linear' | 'db' = 'linear';
+  @state() private tool: Tool = 'markers';
 
   @query('canvas.map') private canvas!: HTMLCanvasElement;
   @query('canvas.axes') private axes!: HTMLCanvasElement;
@@ -54,6 +87,7 @@ export class GgFieldView extends LitElement {
 
   private readonly player = new FilmPlayer(this, () => this.frames, () => this.painter.request());
   private readonly editor = new MarkerEditor(this);
+  private readonly shapes = new ObjectEditor(this);
   private readonly painter = new AnimationFrameController(this, () => this.draw());
   private scratch: { canvas?: HTMLCanvasElement; image?: ImageData } = {};
   /** The linear colour scale last drawn, V/m. */
@@ -71,9 +105,33 @@ export class GgFieldView extends LitElement {
   redraw(): void { this.painter.request(); }
   announce(text: string): void { if (this.readout) this.readout.textContent = text; }
 
+  private setTool(tool: Tool): void {
+    this.tool = tool;
+    this.shapes.reset();
+    if (tool !== 'markers') this.shapes.tool = tool;
+  }
+
+  private readonly onPointerMove = (ev: PointerEvent) => {
+    if (this.tool === 'markers') { this.editor.onPointerMove(ev); return; }
+    const r = this.canvas.getBoundingClientRect();
+    this.editor.pointer = [ev.clientX - r.left, ev.clientY - r.top];
+    this.shapes.onPointerMove(ev);
+  };
+
+  private readonly onKey = (ev: KeyboardEvent) => {
+    if (this.tool === 'markers') this.editor.onKey(ev);
+    else this.shapes.onKey(ev);
+  };
+
   render() {
     const e = this.editor;
+    const o = this.shapes;
+    const markers = this.tool === 'markers';
+    const f = fieldNames(this.scenario?.polarization).field;
     return html`
+      <div class="tools draw" role="group" aria-label="What the pointer does on the map">
+        ${TOOLS.map((t) => html`<button class="small" aria-pressed=${this.tool === t.tool ? 'true' : 'false'} @click=${() => this.setTool(t.tool)}>${t.label}</button>`)}
+      </div>
       <div class="tools">
         <label>Scale
           <select aria-label="Colour scale of the field" @change=${(ev: Event) => { this.scale = (ev.target as HTMLSelectElement).value as 'linear' | 'db'; }}>
@@ -86,9 +144,10 @@ export class GgFieldView extends LitElement {
       </div>
       <div class="stage">
         <canvas class="map" tabindex="0" role="application"
-          aria-label="Ez field map. Click to add a probe, drag to draw a probe line, drag a marker to move it. Keys: N selects the next marker, arrows move it, A adds a probe, Delete removes the selected probe or line."
-          @pointerdown=${e.onPointerDown} @pointermove=${e.onPointerMove} @pointerup=${e.onPointerUp}
-          @pointercancel=${e.onPointerCancel} @pointerleave=${e.onPointerLeave} @keydown=${e.onKey}></canvas>
+          aria-label="${f} field map. ${HINTS[this.tool].replace(/[<>]/g, '')}"
+          @pointerdown=${markers ? e.onPointerDown : o.onPointerDown} @pointermove=${this.onPointerMove} @pointerup=${markers ? e.onPointerUp : o.onPointerUp}
+          @pointercancel=${markers ? e.onPointerCancel : o.onPointerCancel} @pointerleave=${e.onPointerLeave}
+          @dblclick=${o.onDoubleClick} @keydown=${this.onKey}></canvas>
         <canvas class="axes" aria-hidden="true"></canvas>
       </div>
       <div class="legend">
@@ -96,7 +155,7 @@ export class GgFieldView extends LitElement {
         <span class="scale-label muted num"></span>
       </div>
       <p class="readout muted num" aria-live="off"></p>
-      <p class="keys muted">Click: add probe · drag: draw line · drag a marker: move it · keys <kbd>N</kbd> next marker, arrows move (<kbd>Shift</kbd> ×10), <kbd>A</kbd> add probe, <kbd>Delete</kbd> remove</p>
+      <p class="keys muted">${hintText(HINTS[this.tool])}</p>
     `;
   }
 
@@ -186,7 +245,10 @@ export class GgFieldView extends LitElement {
       this.setScaleText('no field yet: press Run', '−', '+');
     }
     drawAbsorberOutline(ctx, g, palette, dpr);
-    this.labels = drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected);
+    const paint = this.tool === 'markers' ? {} : this.shapes.paint;
+    const objects = this.objects.map(drawableObject);
+    drawObjects(ctx, g, objects, palette, dpr, { ...paint, faulty: this.faultyObjects });
+    this.labels = drawMarkers(ctx, g, s, palette, dpr, this.editor.moving, this.editor.selected, objectNameAnchors(g, objects));
     const line = this.editor.drawing;
     if (line) {
       const a = g.toPixel(line.x0, line.y0);
@@ -206,6 +268,9 @@ export class GgFieldView extends LitElement {
   }
 
   private setScaleText(label: string, low: string, high: string): void {
+    // The painting above writes TMz's names; a TEz grid shows Hz in A/m instead.
+    const names = fieldNames(this.scenario?.polarization);
+    if (names.field === 'Hz') [label, low, high] = [label, low, high].map((t) => t.replace(/\bEz\b/g, 'Hz').replace(/V\/m/g, 'A/m'));
     if (this.scaleLabel) this.scaleLabel.textContent = label;
     const ends = this.renderRoot.querySelectorAll<HTMLElement>('.legend [data-end]');
     if (ends.length === 2) {
@@ -214,19 +279,20 @@ export class GgFieldView extends LitElement {
     }
   }
 
-  /** x, y and Ez under the pointer, in the chosen length unit. */
+  /** x, y and the field under the pointer, in the chosen length unit. */
   private updateReadout(g: GridGeometry, f: ShownFrame | undefined): void {
     const at = this.editor.pointer;
+    const names = fieldNames(this.scenario?.polarization);
     if (!this.readout) return;
     if (!at) {
-      this.readout.textContent = 'Point at the map for x, y and Ez.';
+      this.readout.textContent = `Point at the map for x, y and ${names.field}.`;
       return;
     }
     const dpr = window.devicePixelRatio || 1;
     const [i, j] = g.toNode(at[0] * dpr, at[1] * dpr);
     if (i < 0 || j < 0 || i >= g.nx || j >= g.ny) return;
     let text = `x = ${lengthText(i * g.dx, this.lengthUnit)}, y = ${lengthText(j * g.dy, this.lengthUnit)}`;
-    if (f) text += ` · Ez = ${formatSI(f.data[Math.floor(j / f.stride) * f.width + Math.floor(i / f.stride)], 'V/m', 3)} at step ${f.step}`;
+    if (f) text += ` · ${names.field} = ${formatSI(f.data[Math.floor(j / f.stride) * f.width + Math.floor(i / f.stride)], names.unit, 3)} at step ${f.step}`;
     text += ` · node (${i}, ${j})`;
     if (i < g.cells || j < g.cells || i > g.nx - 1 - g.cells || j > g.ny - 1 - g.cells) text += ' · in the absorber';
     this.readout.textContent = text;
@@ -236,7 +302,8 @@ export class GgFieldView extends LitElement {
     if (!this.canvas || !this.scenario) return;
     const f = this.usableFrame();
     const p = palettes[this.theme];
-    const title = `Ez${f ? ` at step ${f.step}` : ''}, ${this.scale === 'db' ? `dB scale (${DB_RANGE} dB)` : `linear scale ±${formatSI(this.linearScale, 'V/m')}`}`;
+    const names = fieldNames(this.scenario.polarization);
+    const title = `${names.field}${f ? ` at step ${f.step}` : ''}, ${this.scale === 'db' ? `dB scale (${DB_RANGE} dB)` : `linear scale ±${formatSI(this.linearScale, names.unit)}`}`;
     const picture = mapWithAxes(this.canvas, this.scenario.grid, this.lengthUnit, p);
     saveBlob(`field-${fileSafe(this.scale)}.png`, await canvasesToPng([picture], p.surface, p.ink, title));
   }

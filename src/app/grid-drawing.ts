@@ -184,11 +184,12 @@ function haloText(ctx: CanvasRenderingContext2D, text: string, x: number, y: num
  * Source (diamond), probes (rings, named) and lines (segments with square ends, named).
  * `moved` replaces one marker's position while it is being dragged; `selected` is ringed.
  * Names are placed so that none prints over another or over a marker (label-placement.ts);
- * a name with no free spot is left out. Returns the names drawn and their boxes (canvas px).
+ * a name with no free spot is left out. `extra` names (the objects', at canvas px) come
+ * last, so they give way to the markers'. Returns the names drawn and their boxes (canvas px).
  */
 export function drawMarkers(
   ctx: CanvasRenderingContext2D, g: GridGeometry, s: Scenario, p: Palette, dpr: number,
-  moved?: { ref: MarkerRef; x: number; y: number }, selected?: MarkerRef,
+  moved?: { ref: MarkerRef; x: number; y: number }, selected?: MarkerRef, extra: readonly { text: string; at: [number, number] }[] = [],
 ): { text: string; box: Box }[] {
   const at = (ref: MarkerRef, x: number, y: number) => (moved && sameMarker(moved.ref, ref) ? g.toPixel(moved.x, moved.y) : g.toPixel(x, y));
   const obstacles: Box[] = [];
@@ -249,7 +250,7 @@ export function drawMarkers(
   occupy(q, r + dpr);
   if (selected?.kind === 'source') ring(ctx, q, 11 * dpr, p, dpr);
   // Probe names first: they matter more than a line's name when space runs out.
-  const all = [...probeLabels, ...labels];
+  const all = [...probeLabels, ...labels, ...extra];
   ctx.font = `${12 * dpr}px system-ui, sans-serif`;
   ctx.textBaseline = 'top';
   const requests: LabelRequest[] = all.map((l) => ({ at: l.at, width: ctx.measureText(l.text).width + 2 * dpr, height: 14 * dpr }));

@@ -5,6 +5,7 @@ import { cAbs, cArg, type Complex } from '../exact/complex.ts';
 import { formatSI } from '../scenario/units.ts';
 import { ResizeController, TeardownController } from './controllers.ts';
 import { fileSafe, saveBlob } from './download.ts';
+import { fieldNames, type FieldNames } from './field-names.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 import { chartsPng, fitCharts, lastIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 
@@ -33,7 +34,7 @@ function unwrap(phases: (number | null)[]): (number | null)[] {
 }
 
 /**
- * Ez/I along one probe line at one analysis frequency: magnitude and phase, FDTD beside
+ * Ez/I (Hz/M in TEz) along one probe line at one analysis frequency: magnitude and phase, FDTD beside
  * exact, then the magnitude error (dB) and phase error (degrees) with the phase error the
  * dispersion relation predicts. Three charts, made once per theme, fed with setData.
  */
@@ -53,6 +54,8 @@ export class GgLineChart extends LitElement {
   /** Analysis frequency to show, Hz. */
   @property({ type: Number }) frequency = 0;
   @property() theme: ThemeName = 'light';
+  /** What the field and its source are called (by polarization). */
+  @property({ attribute: false }) names: FieldNames = fieldNames('TMz');
 
   private charts: uPlot[] = [];
 
@@ -70,16 +73,16 @@ export class GgLineChart extends LitElement {
         <button class="small" @click=${this.savePng} ?disabled=${!l} aria-label="Save the charts of line ${l?.name ?? ''} as PNG">PNG</button>
       </div>
       <div class="plots">
-        <div class="plot" data-k="0" role="img" aria-label="Magnitude of Ez/I along line ${l?.name ?? ''}, FDTD and exact"></div>
-        <div class="plot" data-k="1" role="img" aria-label="Phase of Ez/I along line ${l?.name ?? ''}, FDTD and exact"></div>
+        <div class="plot" data-k="0" role="img" aria-label="Magnitude of ${this.names.ratio} along line ${l?.name ?? ''}, FDTD and exact"></div>
+        <div class="plot" data-k="1" role="img" aria-label="Phase of ${this.names.ratio} along line ${l?.name ?? ''}, FDTD and exact"></div>
         <div class="plot" data-k="2" role="img" aria-label="Magnitude and phase error along line ${l?.name ?? ''}, with the predicted phase error"></div>
       </div>
-      <p class="note muted">Phase of Ez/I with the e<sup>+jωt</sup> convention, made continuous along the line; a negative phase error means the grid lags the exact wave. Legends: values under the pointer, or at the end of the line.</p>
+      <p class="note muted">Phase of ${this.names.ratio} with the e<sup>+jωt</sup> convention, made continuous along the line; a negative phase error means the grid lags the exact wave. Legends: values under the pointer, or at the end of the line.</p>
     `;
   }
 
   protected updated(changed: PropertyValues<this>): void {
-    if (changed.has('theme')) this.destroyCharts();
+    if (changed.has('theme') || changed.has('names')) this.destroyCharts();
     if (!this.line) return;
     if (this.charts.length === 0) this.create();
     else if (changed.has('line') || changed.has('frequency')) {
@@ -125,12 +128,12 @@ export class GgLineChart extends LitElement {
     this.charts = [
       new uPlot({
         ...base,
-        axes: [xAxis(), siAxis(palette, '|Ez/I|', 'V/(m·A)', 'y')],
+        axes: [xAxis(), siAxis(palette, `|${this.names.ratio}|`, this.names.ratioUnit, 'y')],
         series: [sSeries, series({ label: '|FDTD|', colour: () => palette().fdtd, width: 2 }), series({ label: '|exact|', colour: () => palette().exact, dash: [6, 4] })],
       }, d[0], hosts[0]),
       new uPlot({
         ...base,
-        axes: [xAxis(), siAxis(palette, 'arg Ez/I (°)', '', 'y')],
+        axes: [xAxis(), siAxis(palette, `arg ${this.names.ratio} (°)`, '', 'y')],
         series: [sSeries, series({ label: 'arg FDTD (°)', colour: () => palette().fdtd, width: 2 }), series({ label: 'arg exact (°)', colour: () => palette().exact, dash: [6, 4] })],
       }, d[1], hosts[1]),
       new uPlot({
@@ -149,7 +152,7 @@ export class GgLineChart extends LitElement {
 
   private async savePng(): Promise<void> {
     if (this.charts.length === 0 || !this.line) return;
-    const title = `Line ${this.line.name} at ${formatSI(this.frequency, 'Hz')}: |Ez/I|, phase, errors (FDTD vs exact)`;
+    const title = `Line ${this.line.name} at ${formatSI(this.frequency, 'Hz')}: |${this.names.ratio}|, phase, errors (FDTD vs exact)`;
     saveBlob(`line-${fileSafe(this.line.name)}.png`, await chartsPng(this.charts, palettes[this.theme], title));
   }
 }

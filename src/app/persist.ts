@@ -127,7 +127,7 @@ export function savedUnits(): DisplayUnits {
   const u = readJson(KEY_UNITS) as Partial<Record<keyof DisplayUnits, unknown>> | undefined;
   const pick = <K extends keyof DisplayUnits>(k: K): DisplayUnits[K] =>
     u && (UNIT_CHOICES[k] as readonly unknown[]).includes(u[k]) ? (u[k] as DisplayUnits[K]) : DEFAULT_UNITS[k];
-  return { length: pick('length'), frequency: pick('frequency'), time: pick('time') };
+  return { length: pick('length'), frequency: pick('frequency'), time: pick('time'), conductivity: pick('conductivity') };
 }
 
 export function saveUnits(units: DisplayUnits): void {

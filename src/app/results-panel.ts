@@ -1,8 +1,11 @@
 import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import { repeat } from 'lit/directives/repeat.js';
+import { exactKind } from '../compare/reference.ts';
 import type { RunResults } from '../compare/results.ts';
+import type { Scenario } from '../scenario/types.ts';
 import { formatSI } from '../scenario/units.ts';
+import { fieldNames } from './field-names.ts';
 import './line-chart.ts';
 import './summary-table.ts';
 import { controlStyles, type ThemeName } from './theme.ts';
@@ -14,8 +17,10 @@ export type RunFileName = (typeof RUN_FILES)[number];
 /**
  * The comparison of the last run: the summary table per probe (the CLI's figures),
  * FDTD-over-exact time series at each probe, magnitude and phase along each probe line at
- * a chosen frequency, and downloads of the four run files. Fires `gg-export` {name} and
- * `gg-line-frequency` {index}.
+ * a chosen frequency, and downloads of the four run files. Labels follow the run's
+ * polarization (Ez/I or Hz/M); a run without an exact reference says so and offers the
+ * convergence study. Fires `gg-export` {name}, `gg-line-frequency` {index} and
+ * `gg-open-study` {id}.
  */
 @customElement('gg-results-panel')
 export class GgResultsPanel extends LitElement {
@@ -30,6 +35,8 @@ export class GgResultsPanel extends LitElement {
   `];
 
   @property({ attribute: false }) results: RunResults | undefined;
+  /** The scenario that produced the results. */
+  @property({ attribute: false }) scenario: Scenario | undefined;
   /** True when the set-up changed since the run that made these results. */
   @property({ type: Boolean }) stale = false;
   /** Index into the results' frequencies for the line charts. */
@@ -50,6 +57,8 @@ export class GgResultsPanel extends LitElement {
   render() {
     const results = this.results;
     const lineFreq = results?.frequencies[this.lineFrequency];
+    const names = fieldNames(this.scenario?.polarization);
+    const exact = this.scenario ? exactKind(this.scenario) : 'hankel';
     return html`
       <div class="card-head">
         <h2 id="compare-heading">Compare</h2>
@@ -59,12 +68,13 @@ export class GgResultsPanel extends LitElement {
         </div>
       </div>
       ${this.stale ? html`<p class="stale">These results are from the last run; the set-up has changed since. Press Run to update them.</p>` : nothing}
-      <gg-summary-table .results=${results}></gg-summary-table>
+      <gg-summary-table .results=${results} .names=${names} exact=${exact}></gg-summary-table>
       <h3>Time series at the probes</h3>
+      ${results && exact === 'none' ? html`<p class="empty">FDTD alone: no exact reference for these objects (see the note above).</p>` : nothing}
       ${results && results.probes.length ? html`
         <div class="charts">
-          ${repeat(results.probes, (p) => p.name, (p) => html`<gg-timeseries-chart .probe=${p} .dt=${results.dt_s} theme=${this.theme}></gg-timeseries-chart>`)}
-        </div>` : html`<p class="empty">FDTD and exact Ez at each probe appear here after a run.</p>`}
+          ${repeat(results.probes, (p) => p.name, (p) => html`<gg-timeseries-chart .probe=${p} .dt=${results.dt_s} .names=${names} theme=${this.theme}></gg-timeseries-chart>`)}
+        </div>` : html`<p class="empty">FDTD and exact ${names.field} at each probe appear here after a run.</p>`}
       <h3>Along the probe lines</h3>
       ${results && results.lines.length && lineFreq !== undefined ? html`
         <label class="inline">Frequency
@@ -73,8 +83,8 @@ export class GgResultsPanel extends LitElement {
           </select>
         </label>
         <div class="charts">
-          ${repeat(results.lines, (l) => l.name, (l) => html`<gg-line-chart .line=${l} .frequency=${lineFreq} theme=${this.theme}></gg-line-chart>`)}
-        </div>` : html`<p class="empty">Magnitude and phase of Ez/I along each probe line appear here after a run (needs a line and an analysis frequency).</p>`}
+          ${repeat(results.lines, (l) => l.name, (l) => html`<gg-line-chart .line=${l} .frequency=${lineFreq} .names=${names} theme=${this.theme}></gg-line-chart>`)}
+        </div>` : html`<p class="empty">Magnitude and phase of ${names.ratio} along each probe line appear here after a run (needs a line and an analysis frequency).</p>`}
     `;
   }
 }

@@ -2,17 +2,22 @@ import { css, html, LitElement, nothing, type TemplateResult } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import type { Warning } from '../scenario/warnings.ts';
-import type { Problem } from '../scenario/types.ts';
+import type { Problem, Scenario } from '../scenario/types.ts';
 import { UNIT_CHOICES, type DisplayUnits, type Draft, type Edit, type UnitKind } from './draft.ts';
 import { frequenciesSection, linesSection, probesSection } from './list-editors.ts';
+import { mediumSection } from './medium-section.ts';
+import { ObjectCountsController } from './object-counts.ts';
+import { objectsSection } from './objects-section.ts';
+import { PermittivityCurvesCache } from './permittivity-curves.ts';
 import { FieldKit, type FieldHost } from './setup-fields.ts';
 import { readoutsList, warningsList } from './setup-readouts.ts';
-import { absorberSection, gridSection, mediumSection, stepsSection } from './setup-sections.ts';
+import { absorberSection, gridSection, stepsSection } from './setup-sections.ts';
 import { PreviewWaveform, sourceSection } from './source-section.ts';
 import { controlStyles, type ThemeName } from './theme.ts';
 
 const UNIT_MENUS: { kind: UnitKind; label: string }[] = [
   { kind: 'length', label: 'Lengths' }, { kind: 'frequency', label: 'Frequencies' }, { kind: 'time', label: 'Times' },
+  { kind: 'conductivity', label: 'Conductivities' },
 ];
 
 /**
@@ -65,10 +70,22 @@ export class GgSetup extends LitElement implements FieldHost {
     .warnings li + li { margin-top: 0.25rem; }
     .order-top { order: -2; }
     .hint { font-size: 0.75rem; color: var(--gg-muted); margin: 0; grid-column: 1 / -1; }
+    .group { grid-column: 1 / -1; display: grid; grid-template-columns: repeat(auto-fill, minmax(min(100%, 7.5rem), 1fr));
+      gap: 0.4rem 0.6rem; align-items: start; border: 1px solid var(--gg-grid); border-radius: 6px; padding: 0.4rem 0.55rem; background: var(--gg-raised); }
+    .group .end { align-self: end; justify-self: start; }
+    .group .group { background: var(--gg-surface); }
+    .group-head { display: flex; gap: 0.5rem; align-items: baseline; flex-wrap: wrap; }
+    .group-head .count-readout { margin-right: auto; font-size: 0.8rem; }
+    .figures { display: grid; grid-template-columns: repeat(auto-fill, minmax(min(100%, 9rem), 1fr)); gap: 0.3rem 0.8rem; margin: 0; }
+    .figures div { display: flex; flex-direction: column; }
+    .figures dt { font-size: 0.72rem; color: var(--gg-muted); }
+    .figures dd { margin: 0; font-variant-numeric: tabular-nums; font-weight: 600; }
   `];
 
   @property({ attribute: false }) draft: Draft = {};
   @property({ attribute: false }) problems: Problem[] = [];
+  /** The draft as validated, undefined while it is wrong (for the εr(ω) chart and the object counts). */
+  @property({ attribute: false }) scenario: Scenario | undefined;
   @property({ attribute: false }) derived: DerivedQuantities | undefined;
   @property({ attribute: false }) warnings: readonly Warning[] = [];
   @property({ attribute: false }) units!: DisplayUnits;
@@ -80,6 +97,12 @@ export class GgSetup extends LitElement implements FieldHost {
   @state() typing: ReadonlyMap<string, string> = new Map();
 
   private readonly preview = new PreviewWaveform();
+  private readonly curves = new PermittivityCurvesCache();
+  private readonly counts = new ObjectCountsController(this);
+
+  protected willUpdate(): void {
+    this.counts.follow(this.scenario);
+  }
 
   setTyping(key: string, text: string | undefined): void {
     if (text === undefined && !this.typing.has(key)) return;
@@ -118,7 +141,8 @@ export class GgSetup extends LitElement implements FieldHost {
         ${readoutsList(this.derived, this.maps, this.cellRate)}
         ${warningsList(this.warnings)}
         ${gridSection(kit)}
-        ${mediumSection(kit)}
+        ${mediumSection(kit, { derived: this.derived, curves: this.curves.of(this.scenario), theme: this.theme })}
+        ${objectsSection(kit, { counts: this.counts.counts, countsPending: this.counts.pending, f0Hz: this.derived?.f0_Hz })}
         ${absorberSection(kit)}
         ${sourceSection(kit, this.preview.of(kit), this.theme)}
         ${probesSection(kit)}

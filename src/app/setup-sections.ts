@@ -1,6 +1,7 @@
 /**
- * The plain sections of the set-up form: grid, medium, absorber and time steps. Each is a
- * template built from a FieldKit; the figures in their hints come from the scenario layer.
+ * The plain sections of the set-up form: grid (with the polarization), absorber and time
+ * steps. Each is a template built from a FieldKit; the figures in their hints come from
+ * the scenario layer. The medium has its own file (medium-section.ts).
  */
 import { html, type TemplateResult } from 'lit';
 import type { DerivedQuantities } from '../scenario/derived.ts';
@@ -15,15 +16,26 @@ export function gridSection(kit: FieldKit): TemplateResult {
     ${kit.field('Cell size dx', ['grid', 'dx'], { unit: 'length' })}
     ${kit.field('Cell size dy', ['grid', 'dy'], { unit: 'length' })}
     ${kit.field('Courant number', ['grid', 'courant'])}
+    ${polarizationField(kit)}
     <p class="hint">Node counts include the absorber layers. Courant number S = c·dt/min(dx, dy); the 2D limit is
       ${formatSig(stabilityLimitOfDraft(kit.host.draft) ?? NaN, 4)} for these cells.</p>
   `);
 }
 
-export function mediumSection(kit: FieldKit): TemplateResult {
-  return kit.section('Medium', ['medium'], html`
-    ${kit.field('Relative permittivity εr', ['medium', 'epsR'], { placeholder: '1' })}
-  `);
+/** TMz (Ez, Hx, Hy; the default, left out of the file) or TEz (Hz, Ex, Ey). */
+function polarizationField(kit: FieldKit): TemplateResult {
+  const p = kit.get(['polarization']);
+  return html`
+    <div class="field">
+      <label for="f-polarization">Polarization</label>
+      <select id="f-polarization" aria-invalid=${kit.hasProblem(['polarization']) ? 'true' : 'false'} @change=${(e: Event) => {
+        kit.host.emit([{ path: ['polarization'], value: (e.target as HTMLSelectElement).value === 'TEz' ? 'TEz' : undefined }]);
+      }}>
+        <option value="TMz" ?selected=${p !== 'TEz'}>TMz: Ez, Hx, Hy</option>
+        <option value="TEz" ?selected=${p === 'TEz'}>TEz: Hz, Ex, Ey</option>
+      </select>
+      ${kit.problemText(['polarization'])}
+    </div>`;
 }
 
 export function absorberSection(kit: FieldKit): TemplateResult {

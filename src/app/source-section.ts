@@ -1,6 +1,6 @@
 /**
- * The source section of the set-up form: position, current, waveform kind and its fields,
- * and the spectrum preview. Switching the kind converts f0 and τ through the scenario layer
+ * The source section of the set-up form: position, current (a magnetic current in volts
+ * when the grid is TEz), waveform kind and its fields, and the spectrum preview. Switching the kind converts f0 and τ through the scenario layer
  * (src/scenario/readouts.ts `waveformForKind`); placeholders show the defaults it gives.
  */
 import { html, nothing, type TemplateResult } from 'lit';
@@ -8,6 +8,7 @@ import type { PathSegment } from '../scenario/path.ts';
 import { waveformDefaultsOfDraft, waveformForKind, waveformOfDraft } from '../scenario/readouts.ts';
 import type { Waveform, WaveformKind } from '../scenario/types.ts';
 import { siToText, UNIT_EXPONENT, type Edit } from './draft.ts';
+import { fieldNames } from './field-names.ts';
 import type { FieldKit } from './setup-fields.ts';
 import './spectrum-preview.ts';
 import type { ThemeName } from './theme.ts';
@@ -52,12 +53,13 @@ export class PreviewWaveform {
 export function sourceSection(kit: FieldKit, preview: Waveform | undefined, theme: ThemeName): TemplateResult {
   const kind = kit.get([...BASE, 'kind']) as string | undefined;
   const defaults = waveformDefaultsOfDraft(kit.host.draft);
+  const names = fieldNames(kit.get(['polarization']));
   const timeText = (v: number | undefined) =>
     v === undefined ? 'default' : `default ${siToText(Number(v.toPrecision(4)), UNIT_EXPONENT[kit.host.units.time])}`;
   return kit.section('Source', ['source'], html`
     ${kit.field('Position x', ['source', 'x'], { unit: 'length' })}
     ${kit.field('Position y', ['source', 'y'], { unit: 'length' })}
-    ${kit.field('Peak current', ['source', 'amplitude'], { fixedUnit: 'A', placeholder: '1' })}
+    ${kit.field(`Peak ${names.sourceName} ${names.source}`, ['source', 'amplitude'], { fixedUnit: names.sourceUnit, placeholder: '1' })}
     <div class="field">
       <label for="f-waveform-kind">Waveform</label>
       <select id="f-waveform-kind" aria-invalid=${kit.hasProblem([...BASE, 'kind']) ? 'true' : 'false'}
@@ -75,7 +77,7 @@ export function sourceSection(kit: FieldKit, preview: Waveform | undefined, them
     ${kit.field('Delay t0', [...BASE, 't0'], { unit: 'time', placeholder: timeText(defaults.t0) })}
     ${kit.problemText(BASE)}
     <div class="field full-row">
-      <gg-spectrum-preview .waveform=${preview} theme=${theme}></gg-spectrum-preview>
+      <gg-spectrum-preview .waveform=${preview} source=${names.source} theme=${theme}></gg-spectrum-preview>
     </div>
   `);
 }

@@ -12,8 +12,8 @@ const HEIGHT = 130;
 const POINTS = 240;
 
 /**
- * The source spectrum |I(f)| in dB below its peak, with the centre frequency f0 and the
- * −40 dB band edge marked: the band the grid has to resolve.
+ * The source spectrum |I(f)| (|M(f)| for TEz's magnetic current) in dB below its peak, with
+ * the centre frequency f0 and the −40 dB band edge marked: the band the grid has to resolve.
  */
 @customElement('gg-spectrum-preview')
 export class GgSpectrumPreview extends SingleChartElement {
@@ -24,7 +24,14 @@ export class GgSpectrumPreview extends SingleChartElement {
   `];
 
   @property({ attribute: false }) waveform: Waveform | undefined;
+  /** The source's symbol: I, or M in TEz. */
+  @property() source = 'I';
   protected readonly chartHeight = HEIGHT;
+
+  protected updated(changed: PropertyValues<this>): void {
+    if (changed.has('source')) this.destroyChart();
+    super.updated(changed);
+  }
   private marks = { f0: NaN, edge: NaN };
 
   render() {
@@ -73,8 +80,8 @@ export class GgSpectrumPreview extends SingleChartElement {
       legend: { show: false },
       cursor: { show: false },
       scales: { x: { time: false }, y: { range: [-80, 3] } },
-      axes: [siAxis(palette, 'f', 'Hz', 'x'), { ...siAxis(palette, '|I(f)| (dB)', '', 'y'), size: 44 }],
-      series: [{}, series({ label: '|I(f)|', colour: () => palette().fdtd, width: 1.5 })],
+      axes: [siAxis(palette, 'f', 'Hz', 'x'), { ...siAxis(palette, `|${this.source}(f)| (dB)`, '', 'y'), size: 44 }],
+      series: [{}, series({ label: `|${this.source}(f)|`, colour: () => palette().fdtd, width: 1.5 })],
       hooks: {
         draw: [(u) => {
           const ctx = u.ctx;

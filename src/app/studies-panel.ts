@@ -132,6 +132,12 @@ export class GgStudiesPanel extends LitElement {
     for (const [name, text] of Object.entries(files)) saveText(name, text, name.endsWith('.json') ? 'application/json' : 'text/csv');
   }
 
+  /** Opens the tab of the study with this id (nothing while a study runs). */
+  showStudy(id: string): void {
+    const d = STUDIES.find((s) => s.id === id);
+    if (d) this.switchTo(d);
+  }
+
   private switchTo(d: AnyStudyDefinition): void {
     if (this.task.status === 'running' || d === this.study) return;
     this.study = d;

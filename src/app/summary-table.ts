@@ -2,16 +2,22 @@ import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { RunResults } from '../compare/results.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
+import type { ExactKind } from '../compare/reference.ts';
+import { fieldNames, type FieldNames } from './field-names.ts';
+import { noExactNote, noExactStyles } from './no-exact-note.ts';
 import { controlStyles } from './theme.ts';
 
 /**
  * One row per probe and analysis frequency, with the figures the command line prints for
  * `gridgauge run`: position, ρ, the time-domain relErrMax, and per frequency ρ in
- * wavelengths, |Ez/I| error, phase error and the phase error the dispersion relation predicts.
+ * wavelengths, |Ez/I| (|Hz/M| in TEz) error, phase error and the phase error the
+ * dispersion relation predicts. A scenario without an exact reference (objects other than
+ * one circle) has no errors to show: the table gives the probes and sends the reader to
+ * the convergence study.
  */
 @customElement('gg-summary-table')
 export class GgSummaryTable extends LitElement {
-  static styles = [controlStyles, css`
+  static styles = [controlStyles, noExactStyles, css`
     :host { display: block; min-width: 0; }
     .scroll { overflow-x: auto; }
     table { border-collapse: collapse; width: 100%; font-size: 0.86rem; }
@@ -24,11 +30,15 @@ export class GgSummaryTable extends LitElement {
   `];
 
   @property({ attribute: false }) results: RunResults | undefined;
+  @property({ attribute: false }) names: FieldNames = fieldNames('TMz');
+  /** The exact reference the run was compared with. */
+  @property() exact: ExactKind = 'hankel';
 
   render() {
     const r = this.results;
     if (!r) return html`<p class="muted">Run the scenario to fill this table.</p>`;
     if (r.probes.length === 0) return html`<p class="muted">This scenario has no probes: click the field to add one.</p>`;
+    if (this.exact === 'none') return this.withoutReference(r);
     const freqs = r.frequencies;
     const span = Math.max(1, freqs.length);
     return html`
@@ -36,7 +46,7 @@ export class GgSummaryTable extends LitElement {
         <thead>
           <tr>
             <th scope="col">Probe</th><th scope="col">x</th><th scope="col">y</th><th scope="col">ρ</th><th scope="col">relErrMax</th>
-            <th scope="col">Frequency</th><th scope="col">ρ (λ)</th><th scope="col">|Ez/I| error</th>
+            <th scope="col">Frequency</th><th scope="col">ρ (λ)</th><th scope="col">|${this.names.ratio}| error</th>
             <th scope="col">Phase error</th><th scope="col">Predicted</th>
           </tr>
         </thead>
@@ -65,8 +75,22 @@ export class GgSummaryTable extends LitElement {
           })}
         </tbody>
       </table></div>
-      <p class="caption" id="summary-caption">Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</p>
+      <p class="caption" id="summary-caption">${this.names.field} compared. Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</p>
     `;
+  }
+
+  private withoutReference(r: RunResults) {
+    return html`
+      ${noExactNote(this)}
+      <div class="scroll"><table aria-label="Probes of the run, without a comparison">
+        <thead><tr><th scope="col">Probe</th><th scope="col">x</th><th scope="col">y</th><th scope="col">ρ</th><th scope="col">Comparison</th></tr></thead>
+        <tbody>${r.probes.map((p) => html`
+          <tr class="first" data-probe=${p.name}>
+            <td class="name">${p.name}</td><td class="num">${formatSI(p.x_m, 'm')}</td><td class="num">${formatSI(p.y_m, 'm')}</td>
+            <td class="num">${formatSI(p.rho_m, 'm')}</td><td class="muted">no exact ${this.names.field}</td>
+          </tr>`)}
+        </tbody>
+      </table></div>`;
   }
 }
 

@@ -3,6 +3,7 @@ import { customElement, property } from 'lit/decorators.js';
 import type { ProbeResult } from '../compare/results.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
+import { fieldNames, type FieldNames } from './field-names.ts';
 import { controlStyles, palettes, type Palette } from './theme.ts';
 import { SingleChartElement } from './single-chart.ts';
 import { chartsPng, peakIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
@@ -10,8 +11,9 @@ import { chartsPng, peakIndex, restingLegend, series, siAxis, uPlot, uplotStyles
 const HEIGHT = 220;
 
 /**
- * Ez at one probe against time: FDTD and the exact transient field laid over each other,
- * and their difference. The chart is made once per theme; new runs only call setData.
+ * The field (Ez, or Hz in TEz) at one probe against time: FDTD and the exact transient
+ * field laid over each other, and their difference. The chart is made once per theme and
+ * polarization; new runs only call setData.
  */
 @customElement('gg-timeseries-chart')
 export class GgTimeseriesChart extends SingleChartElement {
@@ -28,7 +30,14 @@ export class GgTimeseriesChart extends SingleChartElement {
 
   @property({ attribute: false }) probe: ProbeResult | undefined;
   @property({ type: Number }) dt = 0;
+  /** What the field and its source are called (by polarization). */
+  @property({ attribute: false }) names: FieldNames = fieldNames('TMz');
   protected readonly chartHeight = HEIGHT;
+
+  protected updated(changed: PropertyValues<this>): void {
+    if (changed.has('names')) this.destroyChart();
+    super.updated(changed);
+  }
 
   render() {
     const p = this.probe;
@@ -40,7 +49,7 @@ export class GgTimeseriesChart extends SingleChartElement {
         </span>
         <button class="small" @click=${this.savePng} ?disabled=${!p} aria-label="Save the time series of probe ${p?.name ?? ''} as PNG">PNG</button>
       </div>
-      <div class="plot" role="img" aria-label="Ez against time at probe ${p?.name ?? ''}: FDTD, exact and their difference"></div>
+      <div class="plot" role="img" aria-label="${this.names.field} against time at probe ${p?.name ?? ''}: FDTD, exact and their difference"></div>
       <p class="note muted">Legend: values under the pointer, or at the FDTD peak.</p>
     `;
   }
@@ -73,7 +82,7 @@ export class GgTimeseriesChart extends SingleChartElement {
     return {
       width: Math.max(200, width || 480), height: HEIGHT,
       scales: { x: { time: false } },
-      axes: [siAxis(palette, 't', 's', 'x'), siAxis(palette, 'Ez', 'V/m', 'y')],
+      axes: [siAxis(palette, 't', 's', 'x'), siAxis(palette, this.names.field, this.names.unit, 'y')],
       series: [
         { label: 't', value: (_u, v) => (v === null ? '—' : formatSI(v, 's', 4)) },
         series({ label: 'FDTD', colour: () => palette().fdtd, width: 2 }),
@@ -87,7 +96,7 @@ export class GgTimeseriesChart extends SingleChartElement {
 
   private async savePng(): Promise<void> {
     if (!this.chart || !this.probe) return;
-    saveBlob(`timeseries-${fileSafe(this.probe.name)}.png`, await chartsPng([this.chart], palettes[this.theme], `Ez at probe ${this.probe.name}: FDTD, exact, difference`));
+    saveBlob(`timeseries-${fileSafe(this.probe.name)}.png`, await chartsPng([this.chart], palettes[this.theme], `${this.names.field} at probe ${this.probe.name}: FDTD, exact, difference`));
   }
 }
 
