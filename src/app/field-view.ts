@@ -10,7 +10,7 @@ import { FilmPlayer, type FrameSource } from './film-player.ts';
 import type { Box } from './label-placement.ts';
 import { drawAbsorberOutline, drawMarkers, fitCanvasToGrid, gridMapStyles, GridGeometry, paintColourBar, paintGrid } from './grid-drawing.ts';
 import { lengthText, mapWithAxes, paintAxesCanvas } from './map-axes.ts';
-import { fieldNames } from './field-names.ts';
+import { fieldNames } from '../scenario/field-names.ts';
 import { MarkerEditor } from './marker-editor.ts';
 import { drawObjects, objectNameAnchors } from './object-drawing.ts';
 import { ObjectEditor } from './object-editor.ts';

@@ -5,7 +5,7 @@ import { cAbs, cArg, type Complex } from '../exact/complex.ts';
 import { formatSI } from '../scenario/units.ts';
 import { ResizeController, TeardownController } from './controllers.ts';
 import { fileSafe, saveBlob } from './download.ts';
-import { fieldNames, type FieldNames } from './field-names.ts';
+import { fieldNames, type FieldNames } from '../scenario/field-names.ts';
 import { controlStyles, palettes, type ThemeName } from './theme.ts';
 import { chartsPng, fitCharts, lastIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';
 

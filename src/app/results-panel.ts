@@ -5,7 +5,7 @@ import { exactKind } from '../compare/reference.ts';
 import type { RunResults } from '../compare/results.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatSI } from '../scenario/units.ts';
-import { fieldNames } from './field-names.ts';
+import { fieldNames } from '../scenario/field-names.ts';
 import './line-chart.ts';
 import './summary-table.ts';
 import { controlStyles, type ThemeName } from './theme.ts';

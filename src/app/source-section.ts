@@ -8,7 +8,7 @@ import type { PathSegment } from '../scenario/path.ts';
 import { waveformDefaultsOfDraft, waveformForKind, waveformOfDraft } from '../scenario/readouts.ts';
 import type { Waveform, WaveformKind } from '../scenario/types.ts';
 import { siToText, UNIT_EXPONENT, type Edit } from './draft.ts';
-import { fieldNames } from './field-names.ts';
+import { fieldNames } from '../scenario/field-names.ts';
 import type { FieldKit } from './setup-fields.ts';
 import './spectrum-preview.ts';
 import type { ThemeName } from './theme.ts';

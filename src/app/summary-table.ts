@@ -3,7 +3,7 @@ import { customElement, property } from 'lit/decorators.js';
 import type { RunResults } from '../compare/results.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import type { ExactKind } from '../compare/reference.ts';
-import { fieldNames, type FieldNames } from './field-names.ts';
+import { fieldNames, type FieldNames } from '../scenario/field-names.ts';
 import { noExactNote, noExactStyles } from './no-exact-note.ts';
 import { controlStyles } from './theme.ts';
 

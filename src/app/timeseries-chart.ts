@@ -3,7 +3,7 @@ import { customElement, property } from 'lit/decorators.js';
 import type { ProbeResult } from '../compare/results.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import { fileSafe, saveBlob } from './download.ts';
-import { fieldNames, type FieldNames } from './field-names.ts';
+import { fieldNames, type FieldNames } from '../scenario/field-names.ts';
 import { controlStyles, palettes, type Palette } from './theme.ts';
 import { SingleChartElement } from './single-chart.ts';
 import { chartsPng, peakIndex, restingLegend, series, siAxis, uPlot, uplotStyles } from './uplot-kit.ts';

@@ -3,6 +3,7 @@ import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
 import { makeSimulation } from '../engine/create-simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runExtras, runFiles } from '../io/outputs.ts';
+import { fieldNames } from '../scenario/field-names.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { scenarioWarnings, type Warning } from '../scenario/warnings.ts';
@@ -71,13 +72,13 @@ function wrap(text: string, indent: number): string {
 /** Wall-clock seconds since `t0` (performance.now()). */
 const secondsSince = (t0: number) => (performance.now() - t0) / 1000;
 
-function printProbeTable(r: RunResults, out: (line: string) => void): void {
+function printProbeTable(r: RunResults, ratio: string, out: (line: string) => void): void {
   if (r.probes.length === 0) out('no probes in this scenario: add "probes" to compare FDTD with the exact field');
   for (const p of r.probes) {
     out(`probe ${JSON.stringify(p.name)} at (${formatSI(p.x_m, 'm')}, ${formatSI(p.y_m, 'm')}), ρ = ${formatSI(p.rho_m, 'm')}` +
       (p.reached ? `, time-domain relErrMax ${formatSig(p.relErrMax, 3)}` : ': not reached (the run ended before the pulse arrived)'));
     if (p.spectra.length === 0 || !p.reached) continue;
-    out('  frequency     ρ (λ)    |Ez/I| error   phase error   predicted');
+    out(`  frequency     ρ (λ)    |${ratio}| error   phase error   predicted`);
     for (let k = 0; k < p.spectra.length; k++) {
       const s = p.spectra[k];
       out(`  ${formatSI(s.f_Hz, 'Hz').padEnd(12)}${formatSig(p.rho_wavelengths[k], 3).padStart(7)}` +
@@ -127,7 +128,7 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   } else {
     printWarnings(warnings);
     out(`${sim.layout.nx} × ${sim.layout.ny} grid, ${results.steps} steps of ${formatSI(results.dt_s, 's')} in ${runSeconds.toFixed(2)} s`);
-    printProbeTable(results, out);
+    printProbeTable(results, fieldNames(scenario.polarization).ratio, out);
     if (outDir) out(`wrote timeseries.csv, spectra.csv, lines.csv, summary.json to ${outDir}`);
   }
   sim.dispose();

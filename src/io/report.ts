@@ -95,10 +95,10 @@ export function buildReport(input: ReportInput): string {
     })),
     page(scenarioSection(input.scenario, input.results.steps)),
     page(derivedSection(input.derived, input.warnings, input.run)),
-    page(comparisonSection(input.results)),
+    page(comparisonSection(input.results, input.scenario.polarization)),
     page(plotsSection(input.results, input.scenario, input.errorMap, input.errorMapNote)),
     ...studies.map(({ s, k }) => page(studySection(s, k))),
-    page(closingSection(versionLine)),
+    page(closingSection(versionLine, input.scenario.polarization)),
     page(scenarioAppendix(input.scenario)),
   ];
   return `<!DOCTYPE html>

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { messageInUnit } from '../../src/app/field-messages.ts';
-import { fieldNames } from '../../src/app/field-names.ts';
+import { fieldNames } from '../../src/scenario/field-names.ts';
 import { newPole } from '../../src/app/new-pole.ts';
 import {
   drawableObject, faultyObjectIndices, grown, handlesOf, newObject, newObjectSpot, objectsValue, placementOfDraft, translated, withHandleAt,

@@ -9,7 +9,7 @@ import type { Scenario } from '../../scenario/types.ts';
 import type { Warning } from '../../scenario/warnings.ts';
 import { deg, html, keyValueTable, notation, si, sig, type Html, type Part } from './html.ts';
 import { studyTitle, studyVerdict, type ReportStudy } from './study-data.ts';
-import { CAUTION, CONVENTIONS, JOB_PARAGRAPHS } from './texts.ts';
+import { CAUTION, conventionsFor, JOB_PARAGRAPHS } from './texts.ts';
 
 /** The worst phase error over reached probes and frequencies, with where it was and its prediction. */
 function worstPhase(r: RunResults): string | null {
@@ -87,11 +87,11 @@ ${JOB_PARAGRAPHS.map((p) => html`<p>${p}</p>`)}
  * @example
  * closingSection('gridgauge 0.1.0 · Node v20.20.2 · 2025-01-01');
  */
-export function closingSection(versionLine: string): Html {
+export function closingSection(versionLine: string, polarization?: string): Html {
   return html`<h2 id="conventions">Conventions and cautions</h2>
 <p>Every figure in this report is measured in these conventions (they are the trade's; where texts differ, the choice is stated).</p>
-<ul>${CONVENTIONS.map((c) => html`<li>${notation(c)}</li>`)}</ul>
+<ul>${conventionsFor(polarization).map((c) => html`<li>${notation(c)}</li>`)}</ul>
 <div class="caution"><strong>Caution.</strong> ${CAUTION}</div>
-<p>The exact field is that of an idealised line current in a homogeneous medium: the check measures the grid, not a design. Studies recommend settings for a stated budget; a project with other sources, materials or geometry may need finer settings than they show.</p>
+<p>The exact field is that of an idealised line current in a homogeneous medium, or beside one circular object: the check measures the grid, not a design. Studies recommend settings for a stated budget; a project with other sources, materials or geometry may need finer settings than they show.</p>
 <p class="versions">Made by ${versionLine}.</p>`;
 }

@@ -6,6 +6,7 @@
  */
 import type { ErrorMap } from '../../compare/error-map.ts';
 import type { LineResult, ProbeResult, RunResults } from '../../compare/results.ts';
+import { fieldNames, type FieldNames } from '../../scenario/field-names.ts';
 import type { Scenario } from '../../scenario/types.ts';
 import { svgPlot, type PlotSeries, type PlotSpec } from '../svg-plot.ts';
 import { errorMapFigure } from './error-map-image.ts';
@@ -18,22 +19,22 @@ function figure(spec: PlotSpec, caption: string): Html {
   return html`<figure>${trusted(svgPlot({ ...HALF, ...spec, xmlns: false }))}<figcaption>${caption}</figcaption></figure>`;
 }
 
-function probeFigures(p: ProbeResult, k: number, dt: number): Html {
+function probeFigures(p: ProbeResult, k: number, dt: number, names: FieldNames): Html {
   const n = Math.min(p.fdtd.length, p.exact.length);
   const t = Array.from({ length: n }, (_, i) => i * dt);
   const diff = Array.from({ length: n }, (_, i) => p.fdtd[i] - p.exact[i]);
   const status = p.reached ? `relErrMax ${sig(p.relErrMax, 3)}` : 'not reached: the run ended before the pulse arrived';
   return html`${figure({
-    id: `probe-${k}-series`, title: `Probe “${p.name}”: Ez`,
-    x: { label: 't', unit: 's', min: 0, max: t[n - 1] }, y: { label: 'Ez', unit: 'V/m' },
+    id: `probe-${k}-series`, title: `Probe “${p.name}”: ${names.field}`,
+    x: { label: 't', unit: 's', min: 0, max: t[n - 1] }, y: { label: names.field, unit: names.unit },
     series: [
       { label: 'exact', x: t, y: p.exact, colour: 'exact' },
       { label: 'FDTD', x: t, y: p.fdtd, colour: 'fdtd', style: 'dashed' },
     ],
-  }, `Ez at probe “${p.name}”, ρ = ${si(p.rho_m, 'm')}: FDTD (dashed) over the exact transient field; ${status}.`)}
+  }, `${names.field} at probe “${p.name}”, ρ = ${si(p.rho_m, 'm')}: FDTD (dashed) over the exact transient field; ${status}.`)}
 ${figure({
     id: `probe-${k}-difference`, title: `Probe “${p.name}”: FDTD − exact`,
-    x: { label: 't', unit: 's', min: 0, max: t[n - 1] }, y: { label: 'FDTD − exact', unit: 'V/m' },
+    x: { label: 't', unit: 's', min: 0, max: t[n - 1] }, y: { label: 'FDTD − exact', unit: names.unit },
     series: [{ label: 'FDTD − exact', x: t, y: diff, colour: 'error' }],
   }, `The difference of the two curves at probe “${p.name}”, same time axis.`)}`;
 }
@@ -41,7 +42,7 @@ ${figure({
 /** The points of one line at one frequency, in order along the line. */
 const pointsAt = (line: LineResult, f: number) => line.points.filter((pt) => pt.f_Hz === f);
 
-function lineFigures(line: LineResult, k: number, frequencies: readonly number[]): Html {
+function lineFigures(line: LineResult, k: number, frequencies: readonly number[], names: FieldNames): Html {
   const magnitude: PlotSeries[] = [];
   const phase: PlotSeries[] = [];
   frequencies.forEach((f, c) => {
@@ -59,7 +60,7 @@ function lineFigures(line: LineResult, k: number, frequencies: readonly number[]
   const where = first ? ` from (${si(first.x_m, 'm')}, ${si(first.y_m, 'm')})` : '';
   return html`${figure({
     id: `line-${k}-magnitude`, title: `Line “${line.name}”: magnitude error`,
-    x: along, y: { label: '|Ez/I| error (dB)' }, series: magnitude,
+    x: along, y: { label: `|${names.ratio}| error (dB)` }, series: magnitude,
   }, `20·log10|FDTD/exact| along line “${line.name}”${where}; dashed: the dispersion relation's prediction (0 dB without loss).`)}
 ${figure({
     id: `line-${k}-phase`, title: `Line “${line.name}”: phase error`,
@@ -74,11 +75,12 @@ ${figure({
  * plotsSection(results, scenario, errorMapOf(sim), undefined);
  */
 export function plotsSection(r: RunResults, s: Scenario, map: ErrorMap | undefined, mapNote: string | undefined): Html {
+  const names = fieldNames(s.polarization);
   return html`<h2 id="plots">Plots</h2>
 <h3>Probes: time series</h3>
-${r.probes.length ? html`<div class="plots">${r.probes.map((p, k) => probeFigures(p, k, r.dt_s))}</div>` : html`<p class="note">No probes.</p>`}
+${r.probes.length ? html`<div class="plots">${r.probes.map((p, k) => probeFigures(p, k, r.dt_s, names))}</div>` : html`<p class="note">No probes.</p>`}
 <h3>Probe lines: errors along each line</h3>
-${r.lines.length && r.frequencies.length ? html`<div class="plots">${r.lines.map((l, k) => lineFigures(l, k, r.frequencies))}</div>`
+${r.lines.length && r.frequencies.length ? html`<div class="plots">${r.lines.map((l, k) => lineFigures(l, k, r.frequencies, names))}</div>`
     : html`<p class="note">${r.lines.length ? 'No analysis frequencies: nothing to plot along the lines.' : 'No probe lines.'}</p>`}
 <h3>Error map</h3>
 ${errorMapFigure(map, mapNote, s.grid.dx, s.grid.dy, s.absorber.cells)}`;

@@ -5,6 +5,8 @@
  */
 import type { RunResults } from '../../compare/results.ts';
 import type { DerivedQuantities } from '../../scenario/derived.ts';
+import { fieldNames } from '../../scenario/field-names.ts';
+import type { Polarization } from '../../scenario/types.ts';
 import { formatBytes } from '../../scenario/units.ts';
 import type { Warning } from '../../scenario/warnings.ts';
 import { dataTable, dB, deg, html, keyValueTable, numCell, si, sig, type Cell, type Html } from './html.ts';
@@ -60,7 +62,9 @@ ${warnings.length
  * @example
  * comparisonSection(collectResults(sim));
  */
-export function comparisonSection(r: RunResults): Html {
+export function comparisonSection(r: RunResults, polarization?: Polarization): Html {
+  const names = fieldNames(polarization);
+  const per = names.source === 'I' ? 'the field per ampere of source current' : 'the field per volt of magnetic source current';
   const probeRows = r.probes.map((p): Cell[] => [
     { value: p.name, className: 'name' }, `(${si(p.x_m, 'm')}, ${si(p.y_m, 'm')})`, numCell(si(p.rho_m, 'm')),
     numCell(p.reached ? sig(p.relErrMax, 3) : '—'), p.reached ? 'reached' : 'not reached: the run ended before the pulse arrived',
@@ -80,10 +84,10 @@ export function comparisonSection(r: RunResults): Html {
     });
   }
   return html`<h2 id="comparison">FDTD against the exact field</h2>
-<p>At each probe: the time-domain error relErrMax = max|FDTD − exact| / max|exact| over the run, and at each analysis frequency the errors of Ez/I (the field per ampere of source current) in magnitude and phase, beside what the Yee dispersion relation predicts for that distance and direction. A phase error near its prediction means the grid behaves as theory says; a large difference points at the absorber, the run's length or the source region.</p>
+<p>At each probe: the time-domain error relErrMax = max|FDTD − exact| / max|exact| over the run, and at each analysis frequency the errors of ${names.ratio} (${per}) in magnitude and phase, beside what the Yee dispersion relation predicts for that distance and direction. A phase error near its prediction means the grid behaves as theory says; a large difference points at the absorber, the run's length or the source region.</p>
 ${r.probes.length
     ? html`${dataTable(['probe', 'position (x, y)', { value: 'ρ', numeric: true }, { value: 'relErrMax', numeric: true }, ''], probeRows)}
-${r.frequencies.length ? dataTable(['probe', { value: 'frequency', numeric: true }, { value: 'ρ (λ)', numeric: true }, { value: '|Ez/I| error', numeric: true }, { value: 'predicted', numeric: true }, { value: 'phase error', numeric: true }, { value: 'predicted', numeric: true }, 'note'], spectrumRows)
+${r.frequencies.length ? dataTable(['probe', { value: 'frequency', numeric: true }, { value: 'ρ (λ)', numeric: true }, { value: `|${names.ratio}| error`, numeric: true }, { value: 'predicted', numeric: true }, { value: 'phase error', numeric: true }, { value: 'predicted', numeric: true }, 'note'], spectrumRows)
     : html`<p class="note">No analysis frequencies: no spectra to compare.</p>`}`
     : html`<p class="note">No probes in this scenario: add probes to compare FDTD with the exact field at chosen points.</p>`}
 <p class="note">ρ: distance from the source; ρ (λ): the same in wavelengths of the medium at that frequency. Phase error = arg(FDTD) − arg(exact) with e<sup>+jωt</sup>; negative: the grid lags. Predicted magnitude error is 0 dB in a lossless medium; "—" where the relation gives no value.</p>`;

@@ -1,10 +1,11 @@
 /**
- * What the page calls the field a run computes and its source, by polarization (README
+ * What the page, the CLI and the report call the field a run computes and its source, by polarization (README
  * "Physics conventions"): TMz grids carry Ez driven by an electric line current I in
  * amperes, TEz grids Hz driven by a magnetic line current M in volts. Charts, tables, the
- * field view and the set-up take their labels from here, so the two never disagree.
+ * field view, the set-up, the CLI and the report take their labels from here, so they never
+ * disagree.
  */
-import type { Polarization } from '../scenario/types.ts';
+import type { Polarization } from './types.ts';
 
 export interface FieldNames {
   /** The computed component: "Ez" or "Hz". */
