@@ -71,7 +71,9 @@ export function conformalTMz(g: GridContext, a: LatticeView, counts: number[]) {
 /**
  * Dey–Mittra in TEz: each Hz cell cut by a conductor gets its area fraction outside the
  * metal and its four edge fractions; an edge wholly in the metal is 'pec'; a cut cell whose
- * Gershgorin row fails dt²·R ≤ 4 is dropped (its Hz held at zero).
+ * Gershgorin row fails dt²·R ≤ 4 keeps its field, its edges and their E updates, with its
+ * area fraction raised to the least that meets the bound (module comment of
+ * build-material-map.ts for why it is not held at zero).
  */
 export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: LatticeView, counts: number[]) {
   const cellArea = g.dx * g.dy;
@@ -142,7 +144,7 @@ export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView,
   const ec = electric(c);
 
   const a: ComponentPatch[] = [];
-  let dropped = 0;
+  let enlarged = 0;
   for (const [j, from, to] of g.metalRuns) {
     for (let i = from; i <= to; i++) {
       if (!touchesMetal(i, j) && !touchesMetal(i + 1, j) && !touchesMetal(i - 1, j) && !touchesMetal(i, j + 1) && !touchesMetal(i, j - 1)) continue;
@@ -162,6 +164,7 @@ export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView,
         continue;
       }
       const across: [number, number][] = [[i + 1, j], [i - 1, j], [i, j + 1], [i, j - 1]];
+      // dt² times the row of a cell with the whole area: the row itself is this over the area fraction.
       let rowSum = 0;
       for (let e = 0; e < 4; e++) {
         const spacing = e < 2 ? g.dx : g.dy;
@@ -173,11 +176,11 @@ export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView,
         a.push({ k, kind: 'conformal', areaFraction: area, edgeFractions: fr });
         continue;
       }
-      dropped++;
-      a.push({ k, kind: 'pec' });
+      enlarged++;
+      a.push({ k, kind: 'conformal', areaFraction: rowSum / 4, edgeFractions: fr });
     }
   }
-  return { a, b: eb.out, c: ec.out, dropped };
+  return { a, b: eb.out, c: ec.out, enlarged };
 }
 
 /**
