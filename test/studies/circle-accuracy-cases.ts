@@ -109,12 +109,18 @@ export interface PointError {
   phase_deg: number;
 }
 
+export interface GroupErrors {
+  rel: number; floor: number; scattered: number; mag_dB: number; phase_deg: number;
+  /** Root mean square of rel over the group: steadier than the worst for fitting an order. */
+  rms: number;
+}
+
 export interface CircleErrors {
   cells: number;
   points: PointError[];
-  /** Worst over near and over far points, of each measure. */
-  near: { rel: number; floor: number; scattered: number; mag_dB: number; phase_deg: number };
-  far: { rel: number; floor: number; scattered: number; mag_dB: number; phase_deg: number };
+  /** Worst over near and over far points, of each measure (magnitude and phase as absolute values). */
+  near: GroupErrors;
+  far: GroupErrors;
   /** Largest |field| at the probes in the last 5 % of the run over the largest in the run (energy left). */
   tail: number;
 }
@@ -157,10 +163,11 @@ export async function measureCircle(c: CircleCase, cells: number): Promise<Circl
       mag_dB: e.magDb, phase_deg: e.phaseDeg,
     };
   });
-  const worst = (near: boolean) => {
+  const worst = (near: boolean): GroupErrors => {
     const list = points.filter((p) => p.near === near);
     const max = (k: 'rel' | 'floor' | 'scattered' | 'mag_dB' | 'phase_deg') => Math.max(...list.map((p) => Math.abs(p[k])));
-    return { rel: max('rel'), floor: max('floor'), scattered: max('scattered'), mag_dB: max('mag_dB'), phase_deg: max('phase_deg') };
+    const rms = Math.sqrt(list.reduce((t, p) => t + p.rel * p.rel, 0) / list.length);
+    return { rel: max('rel'), floor: max('floor'), scattered: max('scattered'), mag_dB: max('mag_dB'), phase_deg: max('phase_deg'), rms };
   };
   return { cells, points, near: worst(true), far: worst(false), tail: Math.max(withObject.tail, free.tail) };
 }
