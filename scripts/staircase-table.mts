@@ -5,7 +5,7 @@
 // without the object (dispersion and absorber), magnitude and phase errors, and the observed
 // order fitted over the resolutions. Geometry and measures: test/studies/circle-accuracy-cases.ts.
 // Run: npx tsx scripts/staircase-table.mts [--cells 10,20,40,80]   (10, 20, 40 by default;
-// about 10 s, 80 adds about 30 s)
+// about 15 s; 80 adds some 10 s more)
 import { measureCircle, observedOrder, PEC_RADIUS, ROD, ROD_RADIUS, type CircleCase, type CircleErrors } from '../test/studies/circle-accuracy-cases.ts';
 
 const at = process.argv.indexOf('--cells');
