@@ -71,7 +71,9 @@ export function conformalTMz(g: GridContext, a: LatticeView, counts: number[]) {
 /**
  * Dey–Mittra in TEz: each Hz cell cut by a conductor gets its area fraction outside the
  * metal and its four edge fractions; an edge wholly in the metal is 'pec'; a cut cell whose
- * Gershgorin row fails dt²·R ≤ 4 is dropped (its Hz held at zero).
+ * Gershgorin row fails dt²·R ≤ 4 keeps its field, its edges and their E updates, with its
+ * area fraction raised to the least that meets the bound, the area taken from neighbours
+ * that can spare it (module comment of build-material-map.ts for why).
  */
 export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView, c: LatticeView, counts: number[]) {
   const cellArea = g.dx * g.dy;
@@ -141,8 +143,12 @@ export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView,
   const eb = electric(b);
   const ec = electric(c);
 
+  // The cells near the metal: area fraction outside it, edge fractions, and `load`, dt² times
+  // the Gershgorin row of the cell times its area fraction (the row is load/F, so a cell meets
+  // the bound while F ≥ load/4).
+  interface Cell { area: number; fr: [number, number, number, number]; load: number; cut: boolean }
+  const near = new Map<number, Cell>();
   const a: ComponentPatch[] = [];
-  let dropped = 0;
   for (const [j, from, to] of g.metalRuns) {
     for (let i = from; i <= to; i++) {
       if (!touchesMetal(i, j) && !touchesMetal(i + 1, j) && !touchesMetal(i - 1, j) && !touchesMetal(i, j + 1) && !touchesMetal(i, j - 1)) continue;
@@ -154,30 +160,49 @@ export function conformalTEz(g: GridContext, cells: LatticeView, b: LatticeView,
         eb.fractions.get(edgeK[2]) ?? 1, eb.fractions.get(edgeK[3]) ?? 1,
       ];
       const area = 1 - metalShare[g.local(i, j)];
-      const anyCut = fr.some((f) => f < 1);
-      if (area >= 1 - WHOLE && !anyCut) continue;
       if (area <= WHOLE) {
         // Wholly metal: its Hz stays zero by itself unless an edge still carries field.
         if (fr.some((f) => f > WHOLE)) a.push({ k, kind: 'pec' });
         continue;
       }
       const across: [number, number][] = [[i + 1, j], [i - 1, j], [i, j + 1], [i, j - 1]];
-      let rowSum = 0;
+      let load = 0;
       for (let e = 0; e < 4; e++) {
         const spacing = e < 2 ? g.dx : g.dy;
         const eps = (e < 2 ? ec.epsR : eb.epsR).get(edgeK[e]) ?? g.background.epsR;
         const weight = allMetal(across[e][0], across[e][1]) ? 1 : 2;
-        rowSum += (courantSquared(eps, g.dt) * fr[e] * weight) / (spacing * spacing);
+        load += (courantSquared(eps, g.dt) * fr[e] * weight) / (spacing * spacing);
       }
-      if (rowSum / area <= 4 * (1 + WHOLE)) {
-        a.push({ k, kind: 'conformal', areaFraction: area, edgeFractions: fr });
-        continue;
-      }
-      dropped++;
-      a.push({ k, kind: 'pec' });
+      near.set(k, { area, fr, load, cut: area < 1 - WHOLE || fr.some((f) => f < 1) });
     }
   }
-  return { a, b: eb.out, c: ec.out, dropped };
+
+  // Cells failing the bound get the missing area from live neighbours that can spare it
+  // (module comment of build-material-map.ts); what none can spare they are given anyway.
+  const areas = new Map<number, number>();
+  for (const [k, cell] of near) areas.set(k, cell.area);
+  const spare = (k: number) => (areas.get(k) as number) - (near.get(k) as Cell).load / 4;
+  let enlarged = 0;
+  for (const [k, cell] of near) {
+    if (cell.load / cell.area <= 4 * (1 + WHOLE)) continue;
+    enlarged++;
+    let missing = cell.load / 4 - cell.area;
+    areas.set(k, cell.load / 4);
+    const donors = [k + 1, k - 1, k + g.nx, k - g.nx].filter((q, e) => cell.fr[e] > WHOLE && near.has(q) && spare(q) > 0);
+    donors.sort((p, q) => spare(q) - spare(p));
+    for (const q of donors) {
+      if (!(missing > 0)) break;
+      const share = Math.min(missing, spare(q));
+      areas.set(q, (areas.get(q) as number) - share);
+      missing -= share;
+    }
+  }
+  for (const [k, cell] of near) {
+    const area = areas.get(k) as number;
+    if (cell.cut || area !== cell.area) a.push({ k, kind: 'conformal', areaFraction: area, edgeFractions: cell.fr });
+  }
+  a.sort((p, q) => p.k - q.k);
+  return { a, b: eb.out, c: ec.out, enlarged };
 }
 
 /**

@@ -310,7 +310,7 @@ describe('conformal fill: the small-cell rule keeps the scheme stable', () => {
     expect(map.smallCells?.dropped).toBeGreaterThan(0);
   });
 
-  it('TEz: dt²·λmax ≤ 4 with the map\'s cut cells, > 4 with every cut cell kept', () => {
+  it('TEz: dt²·λmax ≤ 4 with the map\'s cut cells, > 4 with each cut cell at its true area', () => {
     const { map, layout } = build([rod], { fill: 'conformal', polarization: 'TEz', n });
     expect(map.smallCells?.threshold).toBeCloseTo(0.5, 12); // ν² = 0.5
     const cut = new Map<number, { areaFraction: number; edgeFractions: number[] }>();
@@ -319,21 +319,39 @@ describe('conformal fill: the small-cell rule keeps the scheme stable', () => {
       if (p.kind === 'conformal') cut.set(p.k, p as { areaFraction: number; edgeFractions: number[] });
       else heldA.add(p.k);
     }
+    // Only cells wholly in the metal are held at zero: a cut cell keeps its field (module comment).
+    for (const k of heldA) expect(cellFractions(rod, k, n).areaFraction).toBeLessThan(1e-9); // geometry: no area outside the metal
+    const enlarged: number[] = [];
+    const lenders: number[] = [];
+    let moved = 0;
+    for (const [k, p] of cut) {
+      const truth = cellFractions(rod, k, n);
+      p.edgeFractions.forEach((f, e) => expect(f).toBeCloseTo(truth.edgeFractions[e], 9)); // geometry (lengthOutside): edges keep their true fractions
+      if (p.areaFraction > truth.areaFraction + 1e-9) enlarged.push(k);
+      if (p.areaFraction < truth.areaFraction - 1e-9) lenders.push(k);
+      moved += p.areaFraction - truth.areaFraction;
+    }
+    expect(enlarged.length).toBe(map.smallCells?.dropped); // smallCells.dropped counts the enlarged cells in TEz (module comment)
+    expect(enlarged.length).toBeGreaterThan(0);
+    expect(lenders.length).toBeGreaterThan(0);
+    for (const k of lenders) expect([k + 1, k - 1, k + n, k - n].some((q) => enlarged.includes(q))).toBe(true); // area is lent only to a neighbour (module comment)
+    expect(Math.abs(moved)).toBeLessThan(1e-9 * cut.size); // the area outside the metal is kept: lent, not created (module comment)
     const pecB = new Set(ks(map.b, 'pec'));
     const pecC = new Set(ks(map.c, 'pec'));
-    const growth = (restoreDropped: boolean) => {
-      const cells = new Map(cut);
-      if (restoreDropped) for (const k of heldA) cells.set(k, cellFractions(rod, k, n));
+    const growth = (trueAreas: boolean) => {
+      const area = (k: number) => {
+        const p = cut.get(k);
+        if (p === undefined) return 1;
+        return trueAreas ? cellFractions(rod, k, n).areaFraction : p.areaFraction;
+      };
       // Fractions of the four edges of cell k, c(i), c(i−1), b(j), b(j−1); 0 where the edge is a conductor.
-      const edges = (k: number) => cells.get(k)?.edgeFractions ?? [pecC.has(k) ? 0 : 1, pecC.has(k - 1) ? 0 : 1, pecB.has(k) ? 0 : 1, pecB.has(k - n) ? 0 : 1];
-      const held = (i: number, j: number) => !restoreDropped && heldA.has(j * n + i);
-      return layout.dt ** 2 * largestEigenvalue(tezOperator(n, held, (k) => cells.get(k)?.areaFraction ?? 1, edges));
+      const edges = (k: number) => cut.get(k)?.edgeFractions ?? [pecC.has(k) ? 0 : 1, pecC.has(k - 1) ? 0 : 1, pecB.has(k) ? 0 : 1, pecB.has(k - n) ? 0 : 1];
+      return layout.dt ** 2 * largestEigenvalue(tezOperator(n, (i, j) => heldA.has(j * n + i), area, edges));
     };
     const withMap = growth(false);
     expect(withMap).toBeGreaterThan(1.9); // the top of the grid's band, 4ν² = 2
     expect(withMap).toBeLessThanOrEqual(4); // leapfrog stability, module comment
-    expect(map.smallCells?.dropped).toBeGreaterThan(0);
-    expect(growth(true)).toBeGreaterThan(4); // a Rayleigh quotient above 4 proves the drops were needed
+    expect(growth(true)).toBeGreaterThan(4); // a Rayleigh quotient above 4 proves the changed areas were needed
   });
 });
 
@@ -369,11 +387,24 @@ describe('conformal fill, TEz', () => {
     expect(map.smallCells?.threshold).toBeCloseTo(0.5, 12); // ν² = 0.5 (S = 0.5, square cells)
   });
 
-  it('drops a cut cell whose row fails the bound', () => {
-    // Metal for x ≤ 0.1004: area 0.1, row (1/0.1)·0.25·(2 + 0.2 + 0.2) = 6 > 4.
+  it('raises the area of a cut cell whose row fails the bound, and keeps its edges', () => {
+    // Metal for x ≤ 0.1004: area 0.1, row (1/0.1)·0.25·(1·2 + 0 + 0.1·2 + 0.1·2) = 6 > 4.
     const { map } = build([rect(0.05, 0.05, 0.1004, 0.15, 'pec')], { fill: 'conformal', polarization: 'TEz' });
-    expect(map.a.find((p) => p.k === 100 * 200 + 100)).toEqual({ k: 100 * 200 + 100, kind: 'pec' });
-    expect(map.smallCells?.dropped).toBeGreaterThan(90); // the cells along the side, j = 51 … 149
+    const k = 100 * 200 + 100;
+    const cell = map.a.find((p) => p.k === k) as { kind: string; areaFraction: number; edgeFractions: number[] };
+    expect(cell.kind).toBe('conformal'); // the cell keeps its field: Hz = 0 would be a magnetic wall outside the metal (module comment)
+    expect(cell.areaFraction).toBeCloseTo(0.15, 8); // the least meeting the bound: 0.1·6/4 (module comment)
+    const [right, left, top, bottom] = cell.edgeFractions;
+    expect(right).toBe(1); // x = 0.1005 lies outside the metal
+    expect(left).toBe(0); // x = 0.0995 lies in it
+    expect(top).toBeCloseTo(0.1, 8); // closed form: (0.1005 − 0.1004)/0.001
+    expect(bottom).toBeCloseTo(0.1, 8); // closed form, as the top
+    expect(map.b.find((p) => p.k === k)).toBeUndefined(); // the top edge keeps its E update, its midpoint in the metal notwithstanding
+    expect(map.smallCells?.dropped).toBeGreaterThan(90); // the cells along the side, j = 51 … 149, all enlarged
+    // The 0.05 comes from the whole cell to the right (spare 1 − 0.25·(4·2)/4 = 0.5), module comment.
+    const lender = map.a.find((p) => p.k === k + 1) as { kind: string; areaFraction: number; edgeFractions: number[] };
+    expect(lender.areaFraction).toBeCloseTo(0.95, 8); // 1 − (0.15 − 0.1)
+    expect(lender.edgeFractions).toEqual([1, 1, 1, 1]); // its contour is untouched
   });
 
   it('keeps every fraction in [0, 1] and each area fraction in (0, 1]', () => {
