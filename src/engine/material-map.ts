@@ -45,8 +45,10 @@ export interface MaterialMap {
   /** Component sample points each object took (after later objects overlapped it), in object order. */
   nodesPerObject: number[];
   /**
-   * Conformal fill only: cut cells or edges whose outside fraction fell below the
-   * small-cell threshold and were treated as inside the metal, and the threshold used.
+   * Conformal fill only: cut cells whose outside fraction fell below the small-cell
+   * threshold, and the threshold used. In TMz such an edge is treated as inside the metal
+   * (Ez = 0 is the conductor's own condition); in TEz the cell keeps its Hz and its area is
+   * raised to the threshold, lent by open neighbours (build-material-map.ts says why).
    */
   smallCells?: { dropped: number; threshold: number };
 }

@@ -85,6 +85,17 @@ describe('report contents', () => {
   });
 });
 
+describe('report in TEz', () => {
+  it('names Hz, the magnetic current and the TEz grid wherever TMz names Ez', async () => {
+    const run = await runFor(reportScenario({ polarization: 'TEz' }), false);
+    const tez = visible(buildReport({ ...input, ...run, studies: [] }));
+    for (const what of ['|Hz/M| error', 'Probe', '2D TEz grid: Hz at node (i, j)', 'Hz(ω) = −(ωε0εr(ω)/4)·M(ω)']) expect(tez).toContain(what);
+    expect(tez).not.toContain('|Ez/I|');
+    expect(tez).not.toContain('2D TMz grid');
+    expect(visible(report)).toContain('2D TMz grid'); // the TMz report keeps its own wording
+  });
+});
+
 describe('safety', () => {
   it('shows names with markup as text', () => {
     expect(report).not.toContain('<img src=x');

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { demoScenario } from '../../src/scenario/defaults.ts';
 import { objectProblems, objectWarnings, type ObjectScenario } from '../../src/scenario/object-rules.ts';
-import type { Problem, SceneObject } from '../../src/scenario/types.ts';
+import type { Problem, Scenario, SceneObject } from '../../src/scenario/types.ts';
+import { scenarioWarnings } from '../../src/scenario/warnings.ts';
 
 /**
  * The demo scenario (300 × 300 nodes of 1 mm, 10 absorber cells: the interior runs from
@@ -149,5 +150,26 @@ describe('object warnings', () => {
     const metalPin = circle(0.1005, 0.1005, 0.0003);
     expect(only(objectWarnings(withObjects([metalPin], { fill: 'average' })), 'objects[0]')).toMatch(/the average fill staircases a perfect conductor in TMz.*"fill": "conformal"$/);
     expect(objectWarnings(withObjects([metalPin], { fill: 'conformal', polarization: 'TEz' }))).toEqual([]);
+  });
+});
+
+describe('object warnings reach check, run, summary.json and the page', () => {
+  it('lists a missed object among the scenario warnings with code object-missed', () => {
+    const pin = circle(0.1005, 0.1, 0.0003, { epsR: 3 });
+    const w = scenarioWarnings(withObjects([pin]) as Scenario).filter((x) => x.code === 'object-missed');
+    expect(w.map((x) => x.path)).toEqual(['objects[0]']);
+    expect(w[0].message).toMatch(/^takes no Ez node/);
+  });
+
+  it('warns against the average fill on a penetrable object in TEz, and only there', () => {
+    // Measured, not assumed: test/studies/circle-accuracy.test.ts keeps the TEz average behind the staircase.
+    const rod = circle(0.1, 0.1, 0.01, { epsR: 4 });
+    const codes = (extra: Partial<ObjectScenario>, objects = [rod]) => scenarioWarnings(withObjects(objects, extra) as Scenario).map((x) => x.code);
+    const w = scenarioWarnings(withObjects([circle(0.1, 0.1, 0.01), rod], { fill: 'average', polarization: 'TEz' }) as Scenario).find((x) => x.code === 'tez-average');
+    expect(w?.path).toBe('fill');
+    expect(w?.message).toMatch(/objects\[1\].*"fill": "staircase"/);
+    expect(codes({ fill: 'average', polarization: 'TMz' })).not.toContain('tez-average');
+    expect(codes({ fill: 'staircase', polarization: 'TEz' })).not.toContain('tez-average');
+    expect(codes({ fill: 'average', polarization: 'TEz' }, [circle(0.1, 0.1, 0.01)])).not.toContain('tez-average');
   });
 });
