@@ -77,7 +77,7 @@ describe('sections of the page', () => {
     await expect.poll(() => other.locator('gg-studies-panel').isVisible()).toBe(true); // common practice, no source
     expect(await draft(other)).toEqual(edited); // common practice, no source
     await tab(page, 'Report').click();
-    expect(await page.locator('#view-report').textContent()).toContain('report export is coming'); // common practice, no source
+    expect(await page.locator('#view-report').textContent()).toContain('One self-contained HTML file for a design review'); // common practice, no source
     await tab(page, 'Results').click();
     await expect.poll(() => page.locator('gg-error-map').isVisible()).toBe(true); // common practice, no source
     expect(page.url()).toContain('view=results'); // common practice, no source
