@@ -7,6 +7,7 @@
  * saying plainly that those apply to the next run.
  */
 import type { ErrorMap } from '../compare/error-map.ts';
+import type { SimulationOptions } from '../engine/simulation.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatSI } from '../scenario/units.ts';
@@ -28,6 +29,17 @@ export function plannedMaps(s: Scenario, d: DerivedQuantities, chosenHz: number 
   const first = chosenHz !== undefined && s.frequencies.includes(chosenHz) ? [chosenHz] : [];
   const order = [...first, ...s.frequencies.filter((f) => !first.includes(f))];
   return order.slice(0, Math.min(ENGINE_MAPS_PER_RUN, d.errorMapsFitting));
+}
+
+/**
+ * Engine options for the full-grid DFTs behind the error maps at `frequencies` (Hz), as the
+ * run worker and the page benchmark create their simulations.
+ *
+ * @example
+ * mapOptions([1e10]); // { fullGridFrequency: 1e10 }
+ */
+export function mapOptions(frequencies: readonly number[]): SimulationOptions {
+  return frequencies.length > 0 ? { fullGridFrequency: frequencies[0] } : {};
 }
 
 export interface MapOption { f_Hz: number; label: string; mapped: boolean }

@@ -29,6 +29,25 @@ export interface FieldFrame {
   data: Float32Array;
 }
 
+/** Where the stepping phase's wall-clock time went in the worker, ms (pauses excluded). */
+export interface SteppingSplit {
+  /** From the first batch to the last. */
+  wall: number;
+  /** Inside the engine's step calls (field update, probe and line DFTs, full-grid DFTs). */
+  engine: number;
+  /** Capturing Ez frames and posting them. */
+  frames: number;
+  /** Posting progress messages. */
+  progress: number;
+  /** Waiting on the worker's event loop between batches (commands are heard there). */
+  idle: number;
+  batches: number;
+  frameCount: number;
+}
+
+/** Where the worker's time went, ms: set-up, stepping (with frames), results, error maps, and the stepping's split. */
+export interface RunTimings { setup: number; stepping: number; results: number; errorMap: number; split: SteppingSplit }
+
 export type FromWorker =
   | { type: 'started'; runId: number; stepsTotal: number }
   | { type: 'progress'; runId: number; stepsDone: number; stepsPerSecond: number; paused: boolean }
@@ -41,8 +60,7 @@ export type FromWorker =
     runSeconds: number;
     /** Time steps per second while stepping (pauses excluded). */
     stepsPerSecond: number;
-    /** Where the worker's time went, ms: set-up, stepping (with frames), results, error maps. */
-    timings: { setup: number; stepping: number; results: number; errorMap: number };
+    timings: RunTimings;
     /** Set when the run was stopped because the field blew up: the step and the likely cause. */
     blowUp?: { step: number; reason: string };
     /** Field energy left at the end over its peak after the source ended, dB (NaN if unknown). */

@@ -7,9 +7,9 @@ import { errorMapOf, type ErrorMap } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
 import { drive } from '../engine/batch-driver.ts';
 import { createSimulation, loadEngineModules, type AnySimulation, type EngineModules } from '../engine/create-simulation.ts';
-import type { SimulationOptions } from '../engine/simulation.ts';
 import { demoScenario } from '../scenario/defaults.ts';
 import type { Scenario } from '../scenario/types.ts';
+import { mapOptions } from './map-plan.ts';
 import type { FromWorker, ToWorker } from './protocol.ts';
 
 declare const self: DedicatedWorkerGlobalScope;
@@ -64,15 +64,6 @@ function frameOf(sim: AnySimulation, runId: number): FromWorker & { type: 'frame
   return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data };
 }
 
-/**
- * Engine options for the full-grid DFTs of the error maps. Today's Simulation keeps one
- * (`fullGridFrequency`); with the engine's `fullGridFrequencies` this returns
- * `{ fullGridFrequencies: frequencies }` and {@link mapsOf} reads `errorMapOf(sim, k)` per k.
- */
-function mapOptions(frequencies: readonly number[]): SimulationOptions {
-  return { fullGridFrequency: frequencies[0] };
-}
-
 /** The error maps a finished (or stopped) run accumulated, in the order asked for. */
 function mapsOf(sim: AnySimulation): ErrorMap[] {
   const map = errorMapOf(sim);
@@ -94,25 +85,39 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     let lastFrameStep = 0;
     const live = sim;
     const stepsPerSecond = (steppingMs: number) => (1000 * live.stepsDone) / Math.max(steppingMs, 1e-3);
+    const split = { wall: 0, engine: 0, frames: 0, progress: 0, idle: 0, batches: 0, frameCount: 0 };
+    let pausedMs = 0;
+    const tFirst = performance.now();
     const outcome = await drive(sim, {
       cellsPerBatch: 2e6, maxBatchSteps: frameSteps, targetBatchMs: BATCH_TARGET_MS,
       shouldStop: () => stopRequested, watch: true, watchIntervalMs: FRAME_INTERVAL_MS,
       afterBatch: async ({ steppingMs }) => {
+        split.batches++;
         const now = performance.now();
         if (now - lastFrame >= FRAME_INTERVAL_MS || live.stepsDone - lastFrameStep >= frameSteps || live.stepsLeft === 0) {
           lastFrame = now;
           lastFrameStep = live.stepsDone;
           const frame = frameOf(live, runId);
           post(frame, [frame.data.buffer]);
+          split.frameCount++;
+          const tFrame = performance.now();
+          split.frames += tFrame - now;
           post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: false });
+          split.progress += performance.now() - tFrame;
         }
+        const tYield = performance.now();
         await yieldToMessages();
+        split.idle += performance.now() - tYield;
+        const tPause = performance.now();
         while (paused && !stopRequested) {
           post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: true });
           await new Promise<void>((resolve) => { wake = resolve; });
         }
+        pausedMs += performance.now() - tPause;
       },
     });
+    split.wall = performance.now() - tFirst - pausedMs;
+    split.engine = outcome.steppingMs;
     const { blowUp } = outcome;
     const stepping = outcome.steppingMs;
     if (sim.stepsDone !== lastFrameStep) {
@@ -131,7 +136,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
       type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMaps, blowUp, energyLeftDb: outcome.energyLeftDb,
       runSeconds: (performance.now() - t0) / 1000,
       stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
-      timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults },
+      timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults, split },
     }, transfer);
   } catch (e) {
     post({ type: 'failed', runId, message: e instanceof Error ? e.message : String(e) });

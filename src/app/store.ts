@@ -14,7 +14,7 @@ import type { Warning } from '../scenario/warnings.ts';
 import type { ParseResult, Scenario } from '../scenario/types.ts';
 import type { DisplayUnits, Draft } from './draft.ts';
 import { frameStats, type FrameStats } from './frame-stats.ts';
-import type { FieldFrame } from './protocol.ts';
+import type { FieldFrame, RunTimings } from './protocol.ts';
 import type { View } from './persist.ts';
 import type { ThemeName } from './theme.ts';
 
@@ -32,7 +32,7 @@ export interface RunState {
   /** Why a run failed, or a note about how it ended. */
   message?: string;
   /** Where the worker's time went, ms (for the benchmark). */
-  timings?: { setup: number; stepping: number; results: number; errorMap: number };
+  timings?: RunTimings;
   /** Field energy left at the end of the last run over its peak, dB (for its warning). */
   energyLeftDb?: number;
   /** Why the last run ended early, if it did. */
@@ -81,6 +81,8 @@ export class Store extends EventTarget {
   private frames: ShownFrame[] = [];
   private filmBytes = 0;
   private readonly frameListeners = new Set<(f: ShownFrame | undefined) => void>();
+  /** Frames received and the main-thread milliseconds their figures took (read by the page benchmark). */
+  readonly frameCosts = { count: 0, ms: 0 };
 
   constructor(initial: AppState) {
     super();
@@ -111,7 +113,12 @@ export class Store extends EventTarget {
 
   /** Shows a new frame and keeps it for replay; undefined clears the view and the film. */
   setFrame(incoming: FieldFrame | undefined): void {
+    const t0 = performance.now();
     const frame: ShownFrame | undefined = incoming && { ...incoming, ...frameStats(incoming.data) };
+    if (incoming) {
+      this.frameCosts.count++;
+      this.frameCosts.ms += performance.now() - t0;
+    }
     this.latestFrame = frame;
     if (!frame) {
       this.frames = [];
