@@ -78,9 +78,18 @@ let pointValue: usize = 0; // f64 scratch: Ez at each DFT point this step
 let frequencyCount: i32 = 0;
 let omegaDt: usize = 0; // f64 ω·dt per frequency
 let dft: usize = 0; // f64 (re, im) per frequency per point, frequency-major
-let fullOmegaDt: f64 = 0; // ω·dt of the full-grid DFT; 0 = off
-let fullRe: usize = 0;
-let fullIm: usize = 0;
+// Full-grid running DFTs (the error maps): fullCount frequencies, each a real and an
+// imaginary block of nx·ny floats, claimed one after the other (so block b starts at
+// fullRe + b·fullStride), sampled every fullEvery-th step with weight fullEvery. Their ω·dt
+// and the weights of the step being sampled live in static tables (JavaScript fills ω·dt).
+const FULL_GRID_MAX = 1024;
+const fullOmegaDt = memory.data(FULL_GRID_MAX << 3, 16); // f64 ω·dt per frequency
+const fullWeights = memory.data(FULL_GRID_MAX << 3, 16); // f32 (m·cos, m·sin) per frequency
+let fullCount: i32 = 0;
+let fullEvery: i32 = 1;
+let fullStride: usize = 0;
+let fullRe: usize = 0; // first block: real part of frequency 0
+let fullIm: usize = 0; // imaginary part of frequency 0
 
 let top: usize = 0;
 
@@ -92,13 +101,15 @@ function claim(bytes: usize): usize {
 }
 
 /**
- * Claims memory for one simulation. Returns the bytes claimed, or 0 when the memory cannot
- * grow that far (the caller reports it; nothing is half-built).
+ * Claims memory for one simulation, with `fullGrid` full-grid running DFTs (0 to 1024).
+ * Returns the bytes claimed, or 0 when the memory cannot grow that far or `fullGrid` is out
+ * of range (the caller reports it; nothing is half-built).
  */
 export function allocate(
   nxIn: i32, nyIn: i32, layerIn: i32, steps: i32,
   probes: i32, points: i32, frequencies: i32, fullGrid: i32,
 ): f64 {
+  if (fullGrid < 0 || fullGrid > FULL_GRID_MAX) return 0;
   nx = nxIn; ny = nyIn; layer = layerIn;
   probeCount = probes; pointCount = points; frequencyCount = frequencies;
   sourceLength = steps; seriesLength = steps + 1;
@@ -135,11 +146,14 @@ export function allocate(
   pointValue = claim(<usize>points << 3);
   omegaDt = claim(<usize>frequencies << 3);
   dft = claim((<usize>points * <usize>frequencies) << 4);
-  if (fullGrid != 0) {
-    fullRe = claim(cells << 2);
-    fullIm = claim(cells << 2);
-  } else {
-    fullRe = 0; fullIm = 0;
+  fullCount = fullGrid;
+  fullEvery = 1;
+  fullStride = ((cells << 2) + 63) & ~(<usize>63);
+  fullRe = 0; fullIm = 0;
+  for (let b = 0; b < 2 * fullGrid; b++) {
+    const p = claim(cells << 2);
+    if (b == 0) fullRe = p;
+    if (b == 1) fullIm = p;
   }
   const needPages = <i32>((top + 0xffff) >> 16);
   const havePages = memory.size();
@@ -151,12 +165,11 @@ export function allocate(
 }
 
 export function setUpdateCoefficients(
-  cexIn: f32, ceyIn: f32, chxIn: f32, chyIn: f32, sourceScaleIn: f32, sourceNode: i32, fullOmegaDtIn: f64,
+  cexIn: f32, ceyIn: f32, chxIn: f32, chyIn: f32, sourceScaleIn: f32, sourceNode: i32,
 ): void {
   cex = cexIn; cey = ceyIn; chx = chxIn; chy = chyIn;
   sourceScale = sourceScaleIn; sourceIndex = sourceNode;
   sourceRow = nx > 0 ? sourceNode / nx : 0;
-  fullOmegaDt = fullOmegaDtIn;
   if (ASC_FEATURE_SIMD) {
     v128.store(coefficientVectors, f32x4.splat(chy));
     v128.store(coefficientVectors, f32x4.splat(chx), 16);
@@ -192,6 +205,22 @@ export function pointerTo(which: i32): usize {
     case 27: return pointValue;
   }
   return 0;
+}
+
+/** The table of ω·dt of the full-grid DFTs (f64, one per frequency), for JavaScript to fill. */
+export function fullGridTable(): usize {
+  return fullOmegaDt;
+}
+
+/** Samples the full-grid DFTs every `every`-th step (Ez samples n = every, 2·every, …), each weighted by `every`. */
+export function setFullGridDecimation(every: i32): void {
+  fullEvery = every < 1 ? 1 : every;
+}
+
+/** Address of the real (`imaginary` = 0) or imaginary part of full-grid DFT `k` (nx·ny floats). */
+export function fullGridAt(k: i32, imaginary: i32): usize {
+  if (k < 0 || k >= fullCount) return 0;
+  return fullRe + (<usize>(2 * k + (imaginary != 0 ? 1 : 0))) * fullStride;
 }
 
 export function stepsDone(): i32 {
@@ -559,24 +588,42 @@ function hxStripRow(j: i32, k0: i32): void {
   stripSegment(j, k0, rightStart, nx, leftEnd, r, true, true, false);
 }
 
-// Running DFT of the whole grid, one row: re += Ez·cos, im −= Ez·sin (float32).
-function fullDftRow(k0: i32, c: f32, s: f32): void {
-  let i = 0;
-  if (ASC_FEATURE_SIMD) {
-    const cv = f32x4.splat(c);
-    const sv = f32x4.splat(s);
-    for (; i + 4 <= nx; i += 4) {
+// Running DFTs of the whole grid, one row: per frequency re += Ez·c, im −= Ez·s (float32),
+// with (c, s) the sample's weighted cosine and sine. The row is still in cache from its update.
+function fullDftRow(k0: i32): void {
+  for (let f = 0; f < fullCount; f++) {
+    const c = load<f32>(fullWeights + (<usize>f << 3));
+    const s = load<f32>(fullWeights + (<usize>f << 3), 4);
+    const re = fullRe + (<usize>(2 * f)) * fullStride;
+    const im = re + fullStride;
+    let i = 0;
+    if (ASC_FEATURE_SIMD) {
+      const cv = f32x4.splat(c);
+      const sv = f32x4.splat(s);
+      for (; i + 4 <= nx; i += 4) {
+        const k = k0 + i;
+        const v = vAt(ez, k);
+        vSet(re, k, f32x4.add(vAt(re, k), f32x4.mul(v, cv)));
+        vSet(im, k, f32x4.sub(vAt(im, k), f32x4.mul(v, sv)));
+      }
+    }
+    for (; i < nx; i++) {
       const k = k0 + i;
-      const v = vAt(ez, k);
-      vSet(fullRe, k, f32x4.add(vAt(fullRe, k), f32x4.mul(v, cv)));
-      vSet(fullIm, k, f32x4.sub(vAt(fullIm, k), f32x4.mul(v, sv)));
+      const v = f32At(ez, k);
+      f32Set(re, k, f32At(re, k) + v * c);
+      f32Set(im, k, f32At(im, k) - v * s);
     }
   }
-  for (; i < nx; i++) {
-    const k = k0 + i;
-    const v = f32At(ez, k);
-    f32Set(fullRe, k, f32At(fullRe, k) + v * c);
-    f32Set(fullIm, k, f32At(fullIm, k) - v * s);
+}
+
+// The weights of Ez sample n in the full-grid DFTs: m·cos(ωn·dt), m·sin(ωn·dt) with m the
+// decimation (a sample stands for m steps; src/exact/dft-decimation.ts says why that holds).
+function prepareFullWeights(n: i32): void {
+  const weight = <f64>fullEvery;
+  for (let f = 0; f < fullCount; f++) {
+    const phase = load<f64>(fullOmegaDt + (<usize>f << 3)) * <f64>n;
+    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.cos(phase)));
+    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.sin(phase)), 4);
   }
 }
 
@@ -584,15 +631,9 @@ function fullDftRow(k0: i32, c: f32, s: f32): void {
 
 function sweep(n: i32): void {
   const last = ny - 1;
-  const doDft = fullRe != 0;
-  let c: f32 = 0;
-  let s: f32 = 0;
-  if (doDft) {
-    // The DFT of row j is taken as soon as row j holds Ez at step n+1 (source included).
-    const phase = fullOmegaDt * <f64>(n + 1);
-    c = <f32>Math.cos(phase);
-    s = <f32>Math.sin(phase);
-  }
+  // The DFT of row j is taken as soon as row j holds Ez at step n+1 (source included).
+  const doDft = fullCount > 0 && (n + 1) % fullEvery == 0;
+  if (doDft) prepareFullWeights(n + 1);
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
@@ -609,7 +650,7 @@ function sweep(n: i32): void {
         f32Set(ez, sourceIndex, f32At(ez, sourceIndex) - sourceScale * current);
       }
     }
-    if (doDft) fullDftRow(k0, c, s);
+    if (doDft) fullDftRow(k0);
   }
 }
 

@@ -168,7 +168,16 @@ let pointValue: usize = 0;
 let frequencyCount: i32 = 0;
 let omegaDt: usize = 0;
 let dft: usize = 0;
-let fullOmegaDt: f64 = 0;
+// Full-grid running DFTs of a (the error maps), as in assembly/engine.ts: fullCount
+// frequencies, each a real and an imaginary block of nx·ny floats claimed one after the
+// other (block b at fullRe + b·fullStride), sampled every fullEvery-th step with weight
+// fullEvery; ω·dt and the sample's weights in static tables.
+const FULL_GRID_MAX = 1024;
+const fullOmegaDt = memory.data(FULL_GRID_MAX << 3, 16); // f64 ω·dt per frequency
+const fullWeights = memory.data(FULL_GRID_MAX << 3, 16); // f32 (m·cos, m·sin) per frequency
+let fullCount: i32 = 0;
+let fullEvery: i32 = 1;
+let fullStride: usize = 0;
 let fullRe: usize = 0;
 let fullIm: usize = 0;
 
@@ -183,7 +192,7 @@ function claim(bytes: usize): usize {
 
 /**
  * Claims memory for one simulation. Returns the bytes claimed, or 0 when the memory cannot
- * grow that far. `polarization` 0 = TMz, 1 = TEz; `slots` background state values per node
+ * grow that far or `fullGrid` (full-grid running DFTs, 0 to 1024) is out of range. `polarization` 0 = TMz, 1 = TEz; `slots` background state values per node
  * of each electric component (0 = no background poles); `poles` records in the pole table;
  * `patchA/B/C` patch counts (PEC points apart); `poolSlots` patch state values;
  * `corrections` Debye states at the source point; `runsA/B/C` runs of PEC points;
@@ -196,6 +205,7 @@ export function allocate(
   patchA: i32, patchB: i32, patchC: i32, poolSlots: i32, corrections: i32,
   runsA: i32, runsB: i32, runsC: i32, maskRowsIn: i32,
 ): f64 {
+  if (fullGrid < 0 || fullGrid > FULL_GRID_MAX) return 0;
   nx = nxIn; ny = nyIn; layer = layerIn;
   te = polarization == 1;
   bgSlots = slots;
@@ -261,11 +271,14 @@ export function allocate(
   pointValue = claim(<usize>points << 3);
   omegaDt = claim(<usize>frequencies << 3);
   dft = claim((<usize>points * <usize>frequencies) << 4);
-  if (fullGrid != 0) {
-    fullRe = claim(cells << 2);
-    fullIm = claim(cells << 2);
-  } else {
-    fullRe = 0; fullIm = 0;
+  fullCount = fullGrid;
+  fullEvery = 1;
+  fullStride = ((cells << 2) + 63) & ~(<usize>63);
+  fullRe = 0; fullIm = 0;
+  for (let b = 0; b < 2 * fullGrid; b++) {
+    const p = claim(cells << 2);
+    if (b == 0) fullRe = p;
+    if (b == 1) fullIm = p;
   }
   const needPages = <i32>((top + 0xffff) >> 16);
   const havePages = memory.size();
@@ -278,14 +291,13 @@ export function allocate(
 
 /**
  * Sets the update coefficients (see the header), the background's pole count (its records
- * must already be in the pole table), the source point and its scale, and the frequency of
- * the full-grid DFT (ω·dt; 0 = off).
+ * must already be in the pole table), and the source point and its scale.
  */
 export function setCoefficients(
   caAIn: f32, cbxAIn: f32, cbyAIn: f32, cqAIn: f32,
   caBIn: f32, cbBIn: f32, cqBIn: f32,
   caCIn: f32, cbCIn: f32, cqCIn: f32,
-  backgroundPoles: i32, sourceScaleIn: f32, sourceNode: i32, fullOmegaDtIn: f64,
+  backgroundPoles: i32, sourceScaleIn: f32, sourceNode: i32,
 ): void {
   caA = caAIn; cbxA = cbxAIn; cbyA = cbyAIn; cqA = cqAIn;
   caB = caBIn; cbB = cbBIn; cqB = cqBIn;
@@ -298,7 +310,6 @@ export function setCoefficients(
   bgMode = bgPoleCount == 0 ? NONE : bgPoleCount == 1 ? load<i32>(poleTable) : MANY;
   sourceScale = sourceScaleIn; sourceIndex = sourceNode;
   sourceRow = nx > 0 ? sourceNode / nx : 0;
-  fullOmegaDt = fullOmegaDtIn;
   const v = coefficientVectors;
   store<f32>(v + V_CAA, caA); store<f32>(v + V_CBXA, cbxA); store<f32>(v + V_CBYA, cbyA); store<f32>(v + V_CQA, cqA);
   store<f32>(v + V_CAB, caB); store<f32>(v + V_CBB, cbB); store<f32>(v + V_CQB, cqB);
@@ -349,6 +360,22 @@ export function pointerTo(which: i32): usize {
     case 43: return pecStartC;
   }
   return 0;
+}
+
+/** The table of ω·dt of the full-grid DFTs (f64, one per frequency), for JavaScript to fill. */
+export function fullGridTable(): usize {
+  return fullOmegaDt;
+}
+
+/** Samples the full-grid DFTs every `every`-th step (samples n = every, 2·every, …), each weighted by `every`. */
+export function setFullGridDecimation(every: i32): void {
+  fullEvery = every < 1 ? 1 : every;
+}
+
+/** Address of the real (`imaginary` = 0) or imaginary part of full-grid DFT `k` (nx·ny floats). */
+export function fullGridAt(k: i32, imaginary: i32): usize {
+  if (k < 0 || k >= fullCount) return 0;
+  return fullRe + (<usize>(2 * k + (imaginary != 0 ? 1 : 0))) * fullStride;
 }
 
 export function stepsDone(): i32 {
@@ -1344,24 +1371,42 @@ function fusedRow(j: i32): void {
   if (rightStart < nx) stripFusedRange(j, rightStart, nx, leftEnd);
 }
 
-// Running DFT of the whole grid, one row: re += a·cos, im −= a·sin (float32).
-function fullDftRow(k0: i32, cs: f32, sn: f32): void {
-  let i = 0;
-  if (ASC_FEATURE_SIMD) {
-    const cv = f32x4.splat(cs);
-    const sv = f32x4.splat(sn);
-    for (; i + 4 <= nx; i += 4) {
-      const o = <usize>(k0 + i) << 2;
-      const v = v128.load(a + o);
-      v128.store(fullRe + o, f32x4.add(v128.load(fullRe + o), f32x4.mul(v, cv)));
-      v128.store(fullIm + o, f32x4.sub(v128.load(fullIm + o), f32x4.mul(v, sv)));
+// Running DFTs of the whole grid, one row: per frequency re += a·c, im −= a·s (float32), with
+// (c, s) the sample's weighted cosine and sine.
+function fullDftRow(k0: i32): void {
+  for (let f = 0; f < fullCount; f++) {
+    const cs = load<f32>(fullWeights + (<usize>f << 3));
+    const sn = load<f32>(fullWeights + (<usize>f << 3), 4);
+    const re = fullRe + (<usize>(2 * f)) * fullStride;
+    const im = re + fullStride;
+    let i = 0;
+    if (ASC_FEATURE_SIMD) {
+      const cv = f32x4.splat(cs);
+      const sv = f32x4.splat(sn);
+      for (; i + 4 <= nx; i += 4) {
+        const o = <usize>(k0 + i) << 2;
+        const v = v128.load(a + o);
+        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v, cv)));
+        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v, sv)));
+      }
+    }
+    for (; i < nx; i++) {
+      const k = k0 + i;
+      const v = f32At(a, k);
+      f32Set(re, k, f32At(re, k) + v * cs);
+      f32Set(im, k, f32At(im, k) - v * sn);
     }
   }
-  for (; i < nx; i++) {
-    const k = k0 + i;
-    const v = f32At(a, k);
-    f32Set(fullRe, k, f32At(fullRe, k) + v * cs);
-    f32Set(fullIm, k, f32At(fullIm, k) - v * sn);
+}
+
+// The weights of sample n in the full-grid DFTs: m·cos(ωn·dt), m·sin(ωn·dt) with m the
+// decimation (src/exact/dft-decimation.ts says why a sample may stand for m steps).
+function prepareFullWeights(n: i32): void {
+  const weight = <f64>fullEvery;
+  for (let f = 0; f < fullCount; f++) {
+    const phase = load<f64>(fullOmegaDt + (<usize>f << 3)) * <f64>n;
+    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.cos(phase)));
+    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.sin(phase)), 4);
   }
 }
 
@@ -1369,14 +1414,8 @@ function fullDftRow(k0: i32, cs: f32, sn: f32): void {
 
 function sweep(n: i32): void {
   const last = ny - 1;
-  const doDft = fullRe != 0;
-  let cs: f32 = 0;
-  let sn: f32 = 0;
-  if (doDft) {
-    const phase = fullOmegaDt * <f64>(n + 1);
-    cs = <f32>Math.cos(phase);
-    sn = <f32>Math.sin(phase);
-  }
+  const doDft = fullCount > 0 && (n + 1) % fullEvery == 0;
+  if (doDft) prepareFullWeights(n + 1);
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
@@ -1408,7 +1447,7 @@ function sweep(n: i32): void {
         }
       }
     }
-    if (doDft) fullDftRow(k0, cs, sn);
+    if (doDft) fullDftRow(k0);
   }
 }
 

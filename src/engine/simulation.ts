@@ -7,6 +7,7 @@ import { waveformValue } from '../scenario/waveforms.ts';
 import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
 import { driveSync } from './batch-driver.ts';
 import type { Complex } from '../exact/complex.ts';
+import { fullGridDecimation } from '../exact/dft-decimation.ts';
 import { isSimpleMedium } from '../exact/medium.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
@@ -15,8 +16,54 @@ const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
 export type { Complex } from '../exact/complex.ts';
 
 export interface SimulationOptions {
-  /** Frequency of the optional full-grid running DFT (for the page's error map), Hz. */
+  /** Frequency of one full-grid running DFT sampled at every step (the report's error map), Hz. */
   fullGridFrequency?: number;
+  /**
+   * Frequencies of full-grid running DFTs (the page's error maps), Hz, taken in one pass and
+   * sampled every m-th step, m chosen from the pulse's band so that aliases stay 80 dB below
+   * the wanted value (src/exact/dft-decimation.ts). Takes the place of `fullGridFrequency`.
+   */
+  fullGridFrequencies?: readonly number[];
+  /** Decimation of the full-grid DFTs instead of the one chosen (1 = every step). */
+  fullGridDecimation?: number;
+}
+
+/** Most full-grid DFTs one engine keeps (assembly/engine.ts and media.ts, FULL_GRID_MAX). */
+export const FULL_GRID_MAX = 1024;
+
+/**
+ * The full-grid DFTs a simulation keeps: their frequencies, Hz, and the decimation (a sample
+ * every `decimation` steps). With `fullGridFrequencies` the decimation is chosen by
+ * {@link fullGridDecimation} for the scenario's pulse, time step and medium (lossy media
+ * weigh aliases by their attenuation over the farthest node); `fullGridFrequency` alone keeps
+ * every step, as the report always has; `fullGridDecimation` overrides either.
+ *
+ * @example
+ * fullGridPlan(demo, layoutOf(demo), { fullGridFrequencies: [5e9, 1e10, 1.5e10] }); // { frequencies: [...], decimation: 16 }
+ */
+export function fullGridPlan(scenario: Scenario, layout: Layout, options: SimulationOptions): { frequencies: number[]; decimation: number } {
+  const frequencies = options.fullGridFrequencies !== undefined ? [...options.fullGridFrequencies]
+    : options.fullGridFrequency !== undefined ? [options.fullGridFrequency] : [];
+  if (frequencies.length > FULL_GRID_MAX) {
+    throw new Error(`fullGridFrequencies: ${frequencies.length} full-grid DFTs asked for; one engine keeps at most ${FULL_GRID_MAX}`);
+  }
+  if (!frequencies.every((f) => Number.isFinite(f) && f > 0)) {
+    throw new Error('fullGridFrequencies: every full-grid DFT frequency must be a finite number of Hz above 0');
+  }
+  let decimation = 1;
+  if (options.fullGridDecimation !== undefined) {
+    if (!Number.isInteger(options.fullGridDecimation) || options.fullGridDecimation < 1) {
+      throw new Error(`fullGridDecimation: ${options.fullGridDecimation} is not a whole number of steps of at least 1`);
+    }
+    decimation = options.fullGridDecimation;
+  } else if (options.fullGridFrequencies !== undefined) {
+    const { nx, ny, dx, dy, source } = layout;
+    const sx = source.i * dx;
+    const sy = source.j * dy;
+    const reach = Math.max(...[[0, 0], [nx - 1, 0], [0, ny - 1], [nx - 1, ny - 1]].map(([i, j]) => Math.hypot(i * dx - sx, j * dy - sy)));
+    decimation = fullGridDecimation({ waveform: scenario.source.waveform, dt: layout.dt, frequencies, medium: scenario.medium, reach });
+  }
+  return { frequencies, decimation };
 }
 
 // Indices of engine buffers, as in assembly/engine.ts `pointerTo`.
@@ -25,7 +72,6 @@ const PTR = {
   bEx: 3, aEx: 4, gEx: 5, bHx: 6, aHx: 7, gHx: 8,
   bEy: 9, aEy: 10, gEy: 11, bHy: 12, aHy: 13, gHy: 14,
   source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
-  fullRe: 21, fullIm: 22,
 } as const;
 
 /**
@@ -38,7 +84,12 @@ export class Simulation {
   readonly layout: Layout;
   readonly dt: number;
   readonly memoryBytes: number;
+  /** Frequency of the first full-grid DFT, Hz (undefined without one). */
   readonly fullGridFrequency: number | undefined;
+  /** Frequencies of the full-grid DFTs, Hz, in the order asked for. */
+  readonly fullGridFrequencies: readonly number[];
+  /** The full-grid DFTs take a sample every this many steps. */
+  readonly fullGridDecimation: number;
   private engine: EngineExports | undefined;
   private readonly lineOffsets: number[];
   private readonly pointCount: number;
@@ -58,7 +109,10 @@ export class Simulation {
     const { nx, ny, dx, dy } = layout;
     const L = scenario.absorber.cells;
     const epsR = scenario.medium.epsR;
-    this.fullGridFrequency = options.fullGridFrequency;
+    const full = fullGridPlan(scenario, layout, options);
+    this.fullGridFrequencies = full.frequencies;
+    this.fullGridFrequency = full.frequencies[0];
+    this.fullGridDecimation = full.decimation;
     this.lineOffsets = [];
     let points = layout.probes.length;
     for (const line of layout.lines) {
@@ -69,7 +123,7 @@ export class Simulation {
     const frequencies = scenario.frequencies;
     this.memoryBytes = engineMemoryBytes({
       nx, ny, cells: L, steps: scenario.steps, probes: layout.probes.length,
-      dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
+      dftPoints: points, frequencies: frequencies.length, fullGridDft: full.frequencies.length,
     });
 
     // WebAssembly memory is addressed with 32 bits: beyond 4 GiB the engine's offsets would
@@ -78,8 +132,7 @@ export class Simulation {
       throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
     }
     const engine = instantiateEngine(module);
-    const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length,
-      options.fullGridFrequency !== undefined ? 1 : 0);
+    const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length, full.frequencies.length);
     if (claimed === 0) {
       throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
     }
@@ -89,8 +142,9 @@ export class Simulation {
     engine.setUpdateCoefficients(
       dt / (eps * dx), dt / (eps * dy), dt / (MU0 * dx), dt / (MU0 * dy),
       dt / (eps * dx * dy), layout.source.j * nx + layout.source.i,
-      options.fullGridFrequency !== undefined ? 2 * Math.PI * options.fullGridFrequency * dt : 0,
     );
+    new Float64Array(engine.memory.buffer, engine.fullGridTable() >>> 0, full.frequencies.length).set(full.frequencies.map((f) => 2 * Math.PI * f * dt));
+    engine.setFullGridDecimation(full.decimation);
 
     const x = cpmlAxisTables(nx, scenario.absorber, dx, dt, epsR);
     const y = cpmlAxisTables(ny, scenario.absorber, dy, dt, epsR);
@@ -210,11 +264,18 @@ export class Simulation {
     return [re, im];
   }
 
-  /** The full-grid running DFT (re, im per node), or undefined when not requested. */
-  fullGridDft(): { re: Float32Array; im: Float32Array } | undefined {
-    if (this.fullGridFrequency === undefined) return undefined;
+  /**
+   * Full-grid running DFT `k` (re, im per node, live views), Σ_n Ez[n]·e^{−jωn·dt} over the
+   * samples taken (each weighted by the decimation), or undefined when there is no such DFT.
+   */
+  fullGridDft(k = 0): { re: Float32Array; im: Float32Array } | undefined {
+    if (!(k >= 0 && k < this.fullGridFrequencies.length)) return undefined;
+    const e = this.live();
     const size = this.layout.nx * this.layout.ny;
-    return { re: this.f32(PTR.fullRe, size), im: this.f32(PTR.fullIm, size) };
+    return {
+      re: new Float32Array(e.memory.buffer, e.fullGridAt(k, 0) >>> 0, size),
+      im: new Float32Array(e.memory.buffer, e.fullGridAt(k, 1) >>> 0, size),
+    };
   }
 
   /** Releases the engine instance and its memory. */

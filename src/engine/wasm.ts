@@ -7,8 +7,14 @@
 export interface EngineExports {
   memory: WebAssembly.Memory;
   allocate(nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number): number;
-  setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number, fullOmegaDt: number): void;
+  setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number): void;
   pointerTo(which: number): number;
+  /** Address of the f64 table of ω·dt of the full-grid DFTs. */
+  fullGridTable(): number;
+  /** Samples the full-grid DFTs every `every`-th step, each sample weighted by `every`. */
+  setFullGridDecimation(every: number): void;
+  /** Address of the real (imaginary = 0) or imaginary (1) part of full-grid DFT k. */
+  fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
   step(count: number): void;
   maxAbsEz(): number;
@@ -26,9 +32,12 @@ export interface MediaExports {
   ): number;
   setCoefficients(
     caA: number, cbxA: number, cbyA: number, cqA: number, caB: number, cbB: number, cqB: number,
-    caC: number, cbC: number, cqC: number, backgroundPoles: number, sourceScale: number, sourceNode: number, fullOmegaDt: number,
+    caC: number, cbC: number, cqC: number, backgroundPoles: number, sourceScale: number, sourceNode: number,
   ): void;
   pointerTo(which: number): number;
+  fullGridTable(): number;
+  setFullGridDecimation(every: number): void;
+  fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
   step(count: number): void;
   maxAbsA(): number;
