@@ -150,6 +150,7 @@ export class GgFieldView extends LitElement {
     this.paint();
     this.paintStats.count++;
     this.paintStats.ms += performance.now() - t0;
+    this.player.painted(this.usableFrame());
   }
 
   private paint(): void {

@@ -14,6 +14,10 @@ export type ToWorker =
   | { type: 'pause' }
   | { type: 'resume' }
   | { type: 'stop' }
+  /** The page has painted its last frame: send the next after the current batch. */
+  | { type: 'frame' }
+  /** Whether the field view is on screen: replay frames are captured only then (the last field always). */
+  | { type: 'view'; visible: boolean }
   /** Fault injection for the recovery test: the worker throws outside any handler. */
   | { type: 'crash' };
 
@@ -50,6 +54,7 @@ export interface RunTimings { setup: number; stepping: number; results: number; 
 
 export type FromWorker =
   | { type: 'started'; runId: number; stepsTotal: number }
+  /** A few times a second; `stepsPerSecond` by the wall clock so far, pauses excluded. */
   | { type: 'progress'; runId: number; stepsDone: number; stepsPerSecond: number; paused: boolean }
   | ({ type: 'frame' } & FieldFrame)
   | {
@@ -58,7 +63,7 @@ export type FromWorker =
     errorMaps: ErrorMap[];
     /** Wall-clock seconds from receiving the scenario to the results being ready. */
     runSeconds: number;
-    /** Time steps per second while stepping (pauses excluded). */
+    /** Time steps per second by the wall clock from the first batch to the last (pauses excluded). */
     stepsPerSecond: number;
     timings: RunTimings;
     /** Set when the run was stopped because the field blew up: the step and the likely cause. */

@@ -8,8 +8,9 @@ export interface RunClientHandlers {
 
 /**
  * Owns the run worker: starts it, holds commands until it has said "ready", and replaces
- * it when it crashes, so the page recovers without a reload. A worker that dies before it
- * is ready twice in a row is not started again (the script or engine cannot load).
+ * it when it crashes, so the page recovers without a reload (telling the fresh worker
+ * whether the field view is on screen). A worker that dies before it is ready twice in a
+ * row is not started again (the script or engine cannot load).
  */
 export class RunClient {
   private worker!: Worker;
@@ -18,6 +19,8 @@ export class RunClient {
   private pending: ToWorker[] = [];
   private earlyDeaths = 0;
   private dead = false;
+  /** The page's last word on whether the field view is on screen, told again to a fresh worker. */
+  private view: (ToWorker & { type: 'view' }) | undefined;
 
   constructor(private readonly handlers: RunClientHandlers) {
     this.spawn();
@@ -38,6 +41,7 @@ export class RunClient {
         if (event.data === 'ready') {
           this.isReady = true;
           this.earlyDeaths = 0;
+          if (this.view && !this.pending.includes(this.view)) worker.postMessage(this.view);
           for (const m of this.pending.splice(0)) worker.postMessage(m);
           resolve();
           return;
@@ -69,6 +73,7 @@ export class RunClient {
 
   /** Sends a command now, or as soon as the worker is ready. False when no worker can run. */
   send(message: ToWorker): boolean {
+    if (message.type === 'view') this.view = message;
     if (this.dead) return false;
     if (this.isReady) this.worker.postMessage(message);
     else this.pending.push(message);

@@ -1,7 +1,11 @@
 /**
- * The page's run worker: takes a scenario, steps the engine in batches so that pause,
- * resume and stop are heard between batches, sends progress and Ez frames at animation
- * rate, and at the end (or on stop) sends the comparison results and the error map.
+ * The page's run worker: takes a scenario and steps the engine in batches of about 40 ms,
+ * so that pause, resume and stop are heard between batches. Between batches it sends an Ez
+ * frame when the page has asked for one (the field view asks once per picture it paints
+ * while it is on screen, so frames come at the display's rate and never pile up), replay
+ * frames at even steps through the run while the field view is on screen, and progress a
+ * few times a second; the engine never waits for the page. At the end (or on stop) it sends
+ * the comparison results and the error maps, their buffers transferred, not copied.
  */
 import { errorMapOf, type ErrorMap } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
@@ -17,18 +21,25 @@ declare const self: DedicatedWorkerGlobalScope;
 /** Both engines, compiled once as the worker starts. */
 const modules = loadEngineModules();
 
-/** Frames and progress at least this often, ms (about 30 per second)... */
-const FRAME_INTERVAL_MS = 33;
-/** ...and at least this many frames per run, so a fast run can still be replayed. */
-const FRAMES_PER_RUN = 60;
-/** Aim for batches of about this much stepping, ms, so commands are answered promptly. */
-const BATCH_TARGET_MS = 12;
+/** Replay frames per run, at even steps, while the field view is on screen. */
+const FRAMES_PER_RUN = 40;
+/** Aim for batches of about this much stepping, ms: long enough that the time between batches is small beside it, short enough that commands are answered promptly. */
+const BATCH_TARGET_MS = 40;
+/** Progress messages at most this often, ms. */
+const PROGRESS_INTERVAL_MS = 100;
+/** Least time between two blow-up checks, ms; grown with the grid so the checks' full-grid passes stay about 2 % of the time. */
+const WATCH_INTERVAL_MS = 33;
+const WATCH_MS_PER_NODE = 2e-4;
 /** Largest side of a frame sent to the page; bigger grids are sampled every few nodes. */
 const FRAME_MAX_SIDE = 600;
 
 let paused = false;
 let stopRequested = false;
 let wake: (() => void) | undefined;
+/** The page has drawn its last frame and wants the next. */
+let frameWanted = false;
+/** The field view is on screen: replay frames are worth capturing. */
+let fieldOnScreen = true;
 
 const post = (message: FromWorker, transfer: Transferable[] = []) => self.postMessage(message, transfer);
 
@@ -66,8 +77,7 @@ function frameOf(sim: AnySimulation, runId: number): FromWorker & { type: 'frame
 
 /** The error maps a finished (or stopped) run accumulated, in the order asked for. */
 function mapsOf(sim: AnySimulation): ErrorMap[] {
-  const map = errorMapOf(sim);
-  return map ? [map] : [];
+  return sim.fullGridFrequencies.flatMap((_f, k) => errorMapOf(sim, k) ?? []);
 }
 
 async function run(message: ToWorker & { type: 'run' }): Promise<void> {
@@ -81,49 +91,59 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
-    let lastFrame = -Infinity;
-    let lastFrameStep = 0;
+    let nextFilmStep = frameSteps;
+    let lastFrameStep = -1;
+    let lastProgress = -Infinity;
     const live = sim;
-    const stepsPerSecond = (steppingMs: number) => (1000 * live.stepsDone) / Math.max(steppingMs, 1e-3);
     const split = { wall: 0, engine: 0, frames: 0, progress: 0, idle: 0, batches: 0, frameCount: 0 };
     let pausedMs = 0;
     const tFirst = performance.now();
+    // Steps per second by the wall clock from the first batch, pauses left out: what the person gets.
+    const stepsPerSecond = () => (1000 * live.stepsDone) / Math.max(performance.now() - tFirst - pausedMs, 1e-3);
+    const sendFrame = () => {
+      const t = performance.now();
+      const frame = frameOf(live, runId);
+      post(frame, [frame.data.buffer]);
+      lastFrameStep = live.stepsDone;
+      split.frameCount++;
+      split.frames += performance.now() - t;
+    };
     const outcome = await drive(sim, {
-      cellsPerBatch: 2e6, maxBatchSteps: frameSteps, targetBatchMs: BATCH_TARGET_MS,
-      shouldStop: () => stopRequested, watch: true, watchIntervalMs: FRAME_INTERVAL_MS,
-      afterBatch: async ({ steppingMs }) => {
+      cellsPerBatch: 2e7, maxBatchSteps: frameSteps, targetBatchMs: BATCH_TARGET_MS,
+      shouldStop: () => stopRequested, watch: true,
+      watchIntervalMs: Math.max(WATCH_INTERVAL_MS, WATCH_MS_PER_NODE * sim.layout.nx * sim.layout.ny),
+      afterBatch: async () => {
         split.batches++;
+        const film = fieldOnScreen && live.stepsDone >= nextFilmStep;
+        if (film) nextFilmStep = (Math.floor(live.stepsDone / frameSteps) + 1) * frameSteps;
+        if ((frameWanted || film) && live.stepsLeft > 0) {
+          frameWanted = false;
+          sendFrame();
+        }
         const now = performance.now();
-        if (now - lastFrame >= FRAME_INTERVAL_MS || live.stepsDone - lastFrameStep >= frameSteps || live.stepsLeft === 0) {
-          lastFrame = now;
-          lastFrameStep = live.stepsDone;
-          const frame = frameOf(live, runId);
-          post(frame, [frame.data.buffer]);
-          split.frameCount++;
-          const tFrame = performance.now();
-          split.frames += tFrame - now;
-          post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: false });
-          split.progress += performance.now() - tFrame;
+        if (now - lastProgress >= PROGRESS_INTERVAL_MS) {
+          lastProgress = now;
+          post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(), paused: false });
+          split.progress += performance.now() - now;
         }
         const tYield = performance.now();
         await yieldToMessages();
         split.idle += performance.now() - tYield;
-        const tPause = performance.now();
-        while (paused && !stopRequested) {
-          post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(steppingMs), paused: true });
-          await new Promise<void>((resolve) => { wake = resolve; });
+        if (paused && !stopRequested) {
+          const tPause = performance.now();
+          while (paused && !stopRequested) {
+            post({ type: 'progress', runId, stepsDone: live.stepsDone, stepsPerSecond: stepsPerSecond(), paused: true });
+            await new Promise<void>((resolve) => { wake = resolve; });
+          }
+          pausedMs += performance.now() - tPause;
         }
-        pausedMs += performance.now() - tPause;
       },
     });
     split.wall = performance.now() - tFirst - pausedMs;
     split.engine = outcome.steppingMs;
     const { blowUp } = outcome;
-    const stepping = outcome.steppingMs;
-    if (sim.stepsDone !== lastFrameStep) {
-      const frame = frameOf(sim, runId);
-      post(frame, [frame.data.buffer]);
-    }
+    // The last field is always sent, on screen or not: it is what the view shows afterwards.
+    if (sim.stepsDone !== lastFrameStep) sendFrame();
     const tStepped = performance.now();
     const results = collectResults(sim);
     const tResults = performance.now();
@@ -135,7 +155,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     post({
       type: 'done', runId, stopped: sim.stepsLeft > 0, results, errorMaps, blowUp, energyLeftDb: outcome.energyLeftDb,
       runSeconds: (performance.now() - t0) / 1000,
-      stepsPerSecond: (1000 * sim.stepsDone) / Math.max(stepping, 1e-3),
+      stepsPerSecond: (1000 * sim.stepsDone) / Math.max(split.wall, 1e-3),
       timings: { setup: tSetup - t0, stepping: tStepped - tSetup, results: tResults - tStepped, errorMap: tMap - tResults, split },
     }, transfer);
   } catch (e) {
@@ -162,6 +182,12 @@ self.onmessage = (event: MessageEvent<ToWorker>) => {
       stopRequested = true;
       paused = false;
       wake?.();
+      break;
+    case 'frame':
+      frameWanted = true;
+      break;
+    case 'view':
+      fieldOnScreen = message.visible;
       break;
     case 'crash':
       setTimeout(() => { throw new Error('deliberate worker fault (recovery test)'); }, 0);

@@ -4,8 +4,10 @@
  * down as properties and turns the components' events into controller actions
  * (src/app/controller.ts), which call `set`.
  *
- * Ez frames change thirty times a second, so they bypass the reactive state: the field
- * view subscribes to them and draws in requestAnimationFrame.
+ * Ez frames change many times a second, so they bypass the reactive state: the field
+ * view subscribes to them and draws in requestAnimationFrame, and asks for the next frame
+ * through the store (`requestFrame`, `fieldOnScreen`), which the controller passes to the
+ * run worker.
  */
 import type { ErrorMap } from '../compare/error-map.ts';
 import type { RunResults } from '../compare/results.ts';
@@ -72,6 +74,9 @@ export interface AppState {
 /** An Ez frame with the figures the field view needs (worked out on arrival, off the worker's clock). */
 export type ShownFrame = FieldFrame & FrameStats;
 
+/** What the field view asks of the run: the next frame, or replay frames on or off as it comes on or goes off screen. */
+export type FrameDemand = { type: 'frame' } | { type: 'view'; visible: boolean };
+
 /** Bytes of Ez frames kept for replaying a run; beyond it every other frame is dropped. */
 const FILM_BUDGET_BYTES = 96 * 2 ** 20;
 
@@ -81,6 +86,7 @@ export class Store extends EventTarget {
   private frames: ShownFrame[] = [];
   private filmBytes = 0;
   private readonly frameListeners = new Set<(f: ShownFrame | undefined) => void>();
+  private readonly demandListeners = new Set<(d: FrameDemand) => void>();
   /** Frames received and the main-thread milliseconds their figures took (read by the page benchmark). */
   readonly frameCosts = { count: 0, ms: 0 };
 
@@ -140,5 +146,21 @@ export class Store extends EventTarget {
   onFrame(listen: (f: ShownFrame | undefined) => void): () => void {
     this.frameListeners.add(listen);
     return () => this.frameListeners.delete(listen);
+  }
+
+  /** The field view has painted the newest frame and wants the next one. */
+  requestFrame(): void {
+    for (const listen of this.demandListeners) listen({ type: 'frame' });
+  }
+
+  /** The field view came on screen (true) or went off it (false). */
+  fieldOnScreen(visible: boolean): void {
+    for (const listen of this.demandListeners) listen({ type: 'view', visible });
+  }
+
+  /** Calls `listen` on every request of the field view (the controller sends them to the run worker). */
+  onFrameDemand(listen: (d: FrameDemand) => void): () => void {
+    this.demandListeners.add(listen);
+    return () => this.demandListeners.delete(listen);
   }
 }
