@@ -34,7 +34,8 @@
 // table. Both do the above.
 //
 // Memory is claimed once in `allocate` and never grows afterwards, so the views JavaScript
-// holds stay valid for the life of the instance.
+// holds stay valid for the life of the simulation (an instance may be allocated again for
+// the next one, which clears the memory the last one used).
 //
 // One time step is one sweep over the rows. Row j: b and c of row j (they read a of rows j
 // and j+1, both still old), then a of row j (it reads b of rows j−1 and j and c of row j,
@@ -170,13 +171,13 @@ let omegaDt: usize = 0;
 let dft: usize = 0;
 // Full-grid running DFTs of a (the error maps), as in assembly/engine.ts: fullCount
 // frequencies, each a real and an imaginary block of nx·ny floats claimed one after the
-// other (block b at fullRe + b·fullStride), sampled every fullEvery-th step with weight
-// fullEvery; ω·dt and the sample's weights in static tables.
+// other (block b at fullRe + b·fullStride); frequency f takes sample n when n ≡ r (mod m),
+// weighted by m; ω·dt, m, r and the weights of the step in hand in static tables.
 const FULL_GRID_MAX = 1024;
-const fullOmegaDt = memory.data(FULL_GRID_MAX << 3, 16); // f64 ω·dt per frequency
-const fullWeights = memory.data(FULL_GRID_MAX << 3, 16); // f32 (m·cos, m·sin) per frequency
+const fullTable = memory.data(FULL_GRID_MAX << 4, 16); // f64 ω·dt, i32 m, i32 r per frequency
+const fullWeights = memory.data(FULL_GRID_MAX << 4, 16); // i32 f, f32 m·cos, f32 m·sin per sampled frequency
 let fullCount: i32 = 0;
-let fullEvery: i32 = 1;
+let fullActive: i32 = 0;
 let fullStride: usize = 0;
 let fullRe: usize = 0;
 let fullIm: usize = 0;
@@ -223,6 +224,11 @@ export function allocate(
   }
   stripVectors = (leftEnd + nx - rightStart + 3) >> 2;
   rowVectors = (nx + 3) >> 2;
+  // An instance may serve one simulation after another (the page's run worker reuses its
+  // memory, which the system has already backed): clear what the last one used, so the new
+  // one starts from zeros as on fresh pages.
+  const used = min(top, <usize>memory.size() << 16);
+  if (used > __heap_base) memory.fill(__heap_base, 0, used - __heap_base);
   top = __heap_base;
   coefficientVectors = claim(COEFFICIENT_BYTES);
   const cells = <usize>nx * <usize>ny;
@@ -272,7 +278,7 @@ export function allocate(
   omegaDt = claim(<usize>frequencies << 3);
   dft = claim((<usize>points * <usize>frequencies) << 4);
   fullCount = fullGrid;
-  fullEvery = 1;
+  fullActive = 0;
   fullStride = ((cells << 2) + 63) & ~(<usize>63);
   fullRe = 0; fullIm = 0;
   for (let b = 0; b < 2 * fullGrid; b++) {
@@ -285,7 +291,7 @@ export function allocate(
   if (needPages > havePages) {
     if (memory.grow(needPages - havePages) < 0) return 0;
   }
-  // Fresh pages are zero; an instance is used for one simulation, so nothing else to clear.
+  // Fresh pages are zero and the pages used before were cleared above: nothing else to clear.
   return <f64>(top - __heap_base);
 }
 
@@ -362,14 +368,12 @@ export function pointerTo(which: i32): usize {
   return 0;
 }
 
-/** The table of ω·dt of the full-grid DFTs (f64, one per frequency), for JavaScript to fill. */
+/**
+ * The table of the full-grid DFTs for JavaScript to fill, 16 bytes per frequency: ω·dt (f64),
+ * then m and r (i32): the DFT takes the samples n ≡ r (mod m), n ≥ 1, each weighted by m.
+ */
 export function fullGridTable(): usize {
-  return fullOmegaDt;
-}
-
-/** Samples the full-grid DFTs every `every`-th step (samples n = every, 2·every, …), each weighted by `every`. */
-export function setFullGridDecimation(every: i32): void {
-  fullEvery = every < 1 ? 1 : every;
+  return fullTable;
 }
 
 /** Address of the real (`imaginary` = 0) or imaginary part of full-grid DFT `k` (nx·ny floats). */
@@ -1371,51 +1375,69 @@ function fusedRow(j: i32): void {
   if (rightStart < nx) stripFusedRange(j, rightStart, nx, leftEnd);
 }
 
-// Running DFTs of the whole grid, one row: per frequency re += a·c, im −= a·s (float32), with
-// (c, s) the sample's weighted cosine and sine.
-function fullDftRow(k0: i32): void {
-  for (let f = 0; f < fullCount; f++) {
-    const cs = load<f32>(fullWeights + (<usize>f << 3));
-    const sn = load<f32>(fullWeights + (<usize>f << 3), 4);
-    const re = fullRe + (<usize>(2 * f)) * fullStride;
+// Running DFTs of the whole grid at the sample in hand: per frequency sampled, over every
+// node k, re += a·c, im −= a·s (float32), with (c, s) the sample's weighted cosine and
+// sine. One contiguous pass per frequency after the sweep: long streams run at memory speed,
+// where row-sized pieces between the field updates ran at half of it. Each node sees the same
+// operations in either build.
+function fullDftPass(): void {
+  const total = nx * ny;
+  for (let q = 0; q < fullActive; q++) {
+    const w = fullWeights + (<usize>q << 4);
+    const c = load<f32>(w, 4);
+    const s = load<f32>(w, 8);
+    const re = fullRe + (<usize>(2 * load<i32>(w))) * fullStride;
     const im = re + fullStride;
-    let i = 0;
+    let k = 0;
     if (ASC_FEATURE_SIMD) {
-      const cv = f32x4.splat(cs);
-      const sv = f32x4.splat(sn);
-      for (; i + 4 <= nx; i += 4) {
-        const o = <usize>(k0 + i) << 2;
-        const v = v128.load(a + o);
-        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v, cv)));
-        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v, sv)));
+      const cv = f32x4.splat(c);
+      const sv = f32x4.splat(s);
+      for (; k + 16 <= total; k += 16) {
+        const o = <usize>k << 2;
+        const v0 = v128.load(a + o);
+        const v1 = v128.load(a + o, 16);
+        const v2 = v128.load(a + o, 32);
+        const v3 = v128.load(a + o, 48);
+        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v0, cv)));
+        v128.store(re + o, f32x4.add(v128.load(re + o, 16), f32x4.mul(v1, cv)), 16);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 32), f32x4.mul(v2, cv)), 32);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 48), f32x4.mul(v3, cv)), 48);
+        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v0, sv)));
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 16), f32x4.mul(v1, sv)), 16);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 32), f32x4.mul(v2, sv)), 32);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 48), f32x4.mul(v3, sv)), 48);
       }
     }
-    for (; i < nx; i++) {
-      const k = k0 + i;
+    for (; k < total; k++) {
       const v = f32At(a, k);
-      f32Set(re, k, f32At(re, k) + v * cs);
-      f32Set(im, k, f32At(im, k) - v * sn);
+      f32Set(re, k, f32At(re, k) + v * c);
+      f32Set(im, k, f32At(im, k) - v * s);
     }
   }
 }
 
-// The weights of sample n in the full-grid DFTs: m·cos(ωn·dt), m·sin(ωn·dt) with m the
-// decimation (src/exact/dft-decimation.ts says why a sample may stand for m steps).
+// The full-grid DFTs that take sample n, with its weights m·cos(ωn·dt), m·sin(ωn·dt) (a
+// sample stands for m steps; src/exact/dft-decimation.ts says why that holds).
 function prepareFullWeights(n: i32): void {
-  const weight = <f64>fullEvery;
+  let active = 0;
   for (let f = 0; f < fullCount; f++) {
-    const phase = load<f64>(fullOmegaDt + (<usize>f << 3)) * <f64>n;
-    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.cos(phase)));
-    store<f32>(fullWeights + (<usize>f << 3), <f32>(weight * Math.sin(phase)), 4);
+    const entry = fullTable + (<usize>f << 4);
+    const m = max(load<i32>(entry, 8), 1);
+    if (n % m != load<i32>(entry, 12)) continue;
+    const phase = load<f64>(entry) * <f64>n;
+    const w = fullWeights + (<usize>active << 4);
+    store<i32>(w, f);
+    store<f32>(w, <f32>(<f64>m * Math.cos(phase)), 4);
+    store<f32>(w, <f32>(<f64>m * Math.sin(phase)), 8);
+    active++;
   }
+  fullActive = active;
 }
 
 // ---- one time step ------------------------------------------------------------------------
 
 function sweep(n: i32): void {
   const last = ny - 1;
-  const doDft = fullCount > 0 && (n + 1) % fullEvery == 0;
-  if (doDft) prepareFullWeights(n + 1);
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
@@ -1447,7 +1469,11 @@ function sweep(n: i32): void {
         }
       }
     }
-    if (doDft) fullDftRow(k0);
+  }
+  // The full-grid DFTs take the field at step n+1, source included, once the sweep is done.
+  if (fullCount > 0) {
+    prepareFullWeights(n + 1);
+    if (fullActive > 0) fullDftPass();
   }
 }
 

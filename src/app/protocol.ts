@@ -18,6 +18,8 @@ export type ToWorker =
   | { type: 'frame' }
   /** Whether the field view is on screen: replay frames are captured only then (the last field always). */
   | { type: 'view'; visible: boolean }
+  /** Frame buffers the page is done with (transferred), for the worker to fill again. */
+  | { type: 'recycle'; buffers: ArrayBuffer[] }
   /** Fault injection for the recovery test: the worker throws outside any handler. */
   | { type: 'crash' };
 
@@ -29,6 +31,8 @@ export interface FieldFrame {
   width: number;
   height: number;
   stride: number;
+  /** Kept for replay (frames at even steps through the run, and the last); the others are shown and given back. */
+  film: boolean;
   /** Row-major Ez samples, V/m; row r holds j = r·stride. */
   data: Float32Array;
 }

@@ -1,5 +1,10 @@
 import type { FromWorker, ToWorker } from './protocol.ts';
 
+/** Posts a command, handing over (not copying) the buffers it gives back. */
+function post(worker: Worker, message: ToWorker): void {
+  worker.postMessage(message, message.type === 'recycle' ? message.buffers : []);
+}
+
 export interface RunClientHandlers {
   message(m: FromWorker): void;
   /** The worker died (an uncaught error, or it could not load); a fresh one is started. */
@@ -42,7 +47,7 @@ export class RunClient {
           this.isReady = true;
           this.earlyDeaths = 0;
           if (this.view && !this.pending.includes(this.view)) worker.postMessage(this.view);
-          for (const m of this.pending.splice(0)) worker.postMessage(m);
+          for (const m of this.pending.splice(0)) post(worker, m);
           resolve();
           return;
         }
@@ -75,7 +80,7 @@ export class RunClient {
   send(message: ToWorker): boolean {
     if (message.type === 'view') this.view = message;
     if (this.dead) return false;
-    if (this.isReady) this.worker.postMessage(message);
+    if (this.isReady) post(this.worker, message);
     else this.pending.push(message);
     return true;
   }

@@ -40,6 +40,39 @@ let wake: (() => void) | undefined;
 let frameWanted = false;
 /** The field view is on screen: replay frames are worth capturing. */
 let fieldOnScreen = true;
+/**
+ * Frame buffers the page has given back, filled again for later frames: memory fresh from
+ * the system costs a page fault per 4 KiB on its first touch, which on some machines is
+ * slower than the copy itself.
+ */
+const spare: ArrayBuffer[] = [];
+const SPARE_LIMIT_BYTES = 128 * 2 ** 20;
+
+/**
+ * The last simulation, kept so that the next run takes over its engine instance and the
+ * memory behind it (for the same reason) unless it is much larger than the next run needs.
+ */
+let lastRun: AnySimulation | undefined;
+
+function reusable(scenario: Scenario, maps: number): AnySimulation | undefined {
+  const needed = 4 * scenario.grid.nx * scenario.grid.ny * (3 + 2 * maps);
+  if (lastRun && lastRun.memoryBytes > 2 * needed + 2 ** 26) {
+    lastRun.dispose();
+    lastRun = undefined;
+  }
+  return lastRun;
+}
+
+function bufferOf(bytes: number): ArrayBuffer {
+  const k = spare.findIndex((b) => b.byteLength === bytes);
+  return k >= 0 ? spare.splice(k, 1)[0] : new ArrayBuffer(bytes);
+}
+
+function takeBack(buffers: readonly ArrayBuffer[]): void {
+  for (const b of buffers) if (b.byteLength > 0) spare.push(b);
+  let total = spare.reduce((n, b) => n + b.byteLength, 0);
+  while (total > SPARE_LIMIT_BYTES) total -= (spare.shift() as ArrayBuffer).byteLength;
+}
 
 const post = (message: FromWorker, transfer: Transferable[] = []) => self.postMessage(message, transfer);
 
@@ -54,25 +87,23 @@ function yieldToMessages(): Promise<void> {
   });
 }
 
-function frameOf(sim: AnySimulation, runId: number): FromWorker & { type: 'frame' } {
+/** Ez now, every `stride`-th node so that no side exceeds `maxSide`, in a buffer given back earlier where one fits. */
+function frameOf(sim: AnySimulation, runId: number, film: boolean, maxSide = FRAME_MAX_SIDE): FromWorker & { type: 'frame' } {
   const { nx, ny } = sim.layout;
-  const stride = Math.max(1, Math.ceil(Math.max(nx, ny) / FRAME_MAX_SIDE));
+  const stride = Math.max(1, Math.ceil(Math.max(nx, ny) / maxSide));
   const ez = sim.ezView();
-  let data: Float32Array;
-  let width = nx;
-  let height = ny;
+  const width = Math.ceil(nx / stride);
+  const height = Math.ceil(ny / stride);
+  const data = new Float32Array(bufferOf(4 * width * height));
   if (stride === 1) {
-    data = ez.slice();
+    data.set(ez);
   } else {
-    width = Math.ceil(nx / stride);
-    height = Math.ceil(ny / stride);
-    data = new Float32Array(width * height);
     for (let r = 0; r < height; r++) {
       const row = r * stride * nx;
       for (let c = 0; c < width; c++) data[r * width + c] = ez[row + c * stride];
     }
   }
-  return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, data };
+  return { type: 'frame', runId, step: sim.stepsDone, width, height, stride, film, data };
 }
 
 /** The error maps a finished (or stopped) run accumulated, in the order asked for. */
@@ -87,7 +118,8 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   stopRequested = false;
   let sim: AnySimulation | undefined;
   try {
-    sim = createSimulation(await modules, scenario, mapOptions(message.mapFrequencies));
+    const engines = await modules;
+    sim = createSimulation(engines, scenario, { ...mapOptions(message.mapFrequencies), reuse: reusable(scenario, message.mapFrequencies.length) });
     const tSetup = performance.now();
     post({ type: 'started', runId, stepsTotal: scenario.steps });
     const frameSteps = Math.max(1, Math.ceil(scenario.steps / FRAMES_PER_RUN));
@@ -100,9 +132,9 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     const tFirst = performance.now();
     // Steps per second by the wall clock from the first batch, pauses left out: what the person gets.
     const stepsPerSecond = () => (1000 * live.stepsDone) / Math.max(performance.now() - tFirst - pausedMs, 1e-3);
-    const sendFrame = () => {
+    const sendFrame = (film: boolean) => {
       const t = performance.now();
-      const frame = frameOf(live, runId);
+      const frame = frameOf(live, runId, film);
       post(frame, [frame.data.buffer]);
       lastFrameStep = live.stepsDone;
       split.frameCount++;
@@ -118,7 +150,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
         if (film) nextFilmStep = (Math.floor(live.stepsDone / frameSteps) + 1) * frameSteps;
         if ((frameWanted || film) && live.stepsLeft > 0) {
           frameWanted = false;
-          sendFrame();
+          sendFrame(film);
         }
         const now = performance.now();
         if (now - lastProgress >= PROGRESS_INTERVAL_MS) {
@@ -143,7 +175,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
     split.engine = outcome.steppingMs;
     const { blowUp } = outcome;
     // The last field is always sent, on screen or not: it is what the view shows afterwards.
-    if (sim.stepsDone !== lastFrameStep) sendFrame();
+    if (sim.stepsDone !== lastFrameStep) sendFrame(true);
     const tStepped = performance.now();
     const results = collectResults(sim);
     const tResults = performance.now();
@@ -161,7 +193,7 @@ async function run(message: ToWorker & { type: 'run' }): Promise<void> {
   } catch (e) {
     post({ type: 'failed', runId, message: e instanceof Error ? e.message : String(e) });
   } finally {
-    sim?.dispose();
+    if (sim && !sim.disposed) lastRun = sim;
   }
 }
 
@@ -189,6 +221,9 @@ self.onmessage = (event: MessageEvent<ToWorker>) => {
     case 'view':
       fieldOnScreen = message.visible;
       break;
+    case 'recycle':
+      takeBack(message.buffers);
+      break;
     case 'crash':
       setTimeout(() => { throw new Error('deliberate worker fault (recovery test)'); }, 0);
       break;
@@ -213,15 +248,15 @@ function warmUp(engines: EngineModules): void {
     source: { ...s.source, x: centre, y: centre },
     probes: [{ name: 'warm', x: centre + 12 * dx, y: centre }],
     lines: [{ name: 'warm', x0: centre + 2 * dx, y0: centre, x1: centre + 20 * dx, y1: centre }],
-    frequencies: [s.frequencies[0]],
     steps: 240,
   };
   const sim = createSimulation(engines, scenario, mapOptions(scenario.frequencies));
   for (let k = 0; k < 12; k++) sim.step(20);
-  frameOf(sim, 0);
+  frameOf(sim, 0, false);
+  frameOf(sim, 0, false, n / 2); // the sampled path too, as big grids take it
   collectResults(sim);
   mapsOf(sim);
-  sim.dispose();
+  lastRun = sim;
 }
 
 // Compile and warm the engine before saying "ready", so pressing run does not wait for it.

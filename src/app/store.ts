@@ -74,8 +74,11 @@ export interface AppState {
 /** An Ez frame with the figures the field view needs (worked out on arrival, off the worker's clock). */
 export type ShownFrame = FieldFrame & FrameStats;
 
-/** What the field view asks of the run: the next frame, or replay frames on or off as it comes on or goes off screen. */
-export type FrameDemand = { type: 'frame' } | { type: 'view'; visible: boolean };
+/**
+ * What the page asks of the run: the next frame, replay frames on or off as the field view
+ * comes on or goes off screen, and the buffers of frames it is done with, given back.
+ */
+export type FrameDemand = { type: 'frame' } | { type: 'view'; visible: boolean } | { type: 'recycle'; buffers: ArrayBuffer[] };
 
 /** Bytes of Ez frames kept for replaying a run; beyond it every other frame is dropped. */
 const FILM_BUDGET_BYTES = 96 * 2 ** 20;
@@ -117,7 +120,10 @@ export class Store extends EventTarget {
     return this.frames;
   }
 
-  /** Shows a new frame and keeps it for replay; undefined clears the view and the film. */
+  /**
+   * Shows a new frame, and keeps it for replay when it is a film frame; undefined clears the
+   * view and the film. Frames no longer shown or kept go back to the run worker for reuse.
+   */
   setFrame(incoming: FieldFrame | undefined): void {
     const t0 = performance.now();
     const frame: ShownFrame | undefined = incoming && { ...incoming, ...frameStats(incoming.data) };
@@ -125,21 +131,35 @@ export class Store extends EventTarget {
       this.frameCosts.count++;
       this.frameCosts.ms += performance.now() - t0;
     }
+    const previous = this.latestFrame;
     this.latestFrame = frame;
     if (!frame) {
+      this.giveBack([...this.frames, ...(previous ? [previous] : [])]);
       this.frames = [];
       this.filmBytes = 0;
     } else {
-      this.frames.push(frame);
-      this.filmBytes += frame.data.byteLength;
-      if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
-        const last = this.frames[this.frames.length - 1];
-        this.frames = this.frames.filter((_f, k) => k % 2 === 0);
-        if (this.frames[this.frames.length - 1] !== last) this.frames.push(last);
-        this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
+      if (frame.film) {
+        this.frames.push(frame);
+        this.filmBytes += frame.data.byteLength;
+        if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
+          const last = this.frames[this.frames.length - 1];
+          const kept = this.frames.filter((_f, k) => k % 2 === 0);
+          if (kept[kept.length - 1] !== last) kept.push(last);
+          this.giveBack(this.frames.filter((f) => !kept.includes(f)));
+          this.frames = kept;
+          this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
+        }
       }
+      if (previous && !this.frames.includes(previous)) this.giveBack([previous]);
     }
     for (const listen of this.frameListeners) listen(frame);
+  }
+
+  /** Hands the buffers of frames no longer shown or kept to the run worker (each once). */
+  private giveBack(frames: readonly ShownFrame[]): void {
+    const buffers = [...new Set(frames.map((f) => f.data.buffer as ArrayBuffer))].filter((b) => b.byteLength > 0);
+    if (buffers.length === 0) return;
+    for (const listen of this.demandListeners) listen({ type: 'recycle', buffers });
   }
 
   /** Calls `listen` on every new Ez frame; returns the unsubscribe function. */

@@ -2,7 +2,7 @@ import { layoutOf, type Layout } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import type { MaterialMap } from './material-map.ts';
 import { mediaMemoryBytes } from '../scenario/media-memory.ts';
-import { fullGridPlan, type Complex, type SimulationOptions } from './simulation.ts';
+import { fillFullGridTable, fullGridPlan, type Complex, type SimulationOptions } from './simulation.ts';
 import { instantiateMedia, loadMediaModule, type MediaExports } from './wasm.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
@@ -73,10 +73,12 @@ export class MediaSimulation {
   readonly fullGridFrequency: number | undefined;
   /** Frequencies of the full-grid DFTs, Hz, in the order asked for. */
   readonly fullGridFrequencies: readonly number[];
-  /** The full-grid DFTs take a sample every this many steps. */
-  readonly fullGridDecimation: number;
+  /** Per full-grid DFT, its decimation m and offset r: it takes the samples n ≡ r (mod m), each weighted by m. */
+  readonly fullGridDecimations: readonly number[];
+  readonly fullGridOffsets: readonly number[];
   readonly tables: MediaTables;
   private engine: MediaExports | undefined;
+  private readonly module: WebAssembly.Module;
   private readonly lineOffsets: number[];
   private readonly pointCount: number;
 
@@ -94,7 +96,8 @@ export class MediaSimulation {
     const full = fullGridPlan(scenario, layout, options);
     this.fullGridFrequencies = full.frequencies;
     this.fullGridFrequency = full.frequencies[0];
-    this.fullGridDecimation = full.decimation;
+    this.fullGridDecimations = full.decimations;
+    this.fullGridOffsets = full.offsets;
     this.lineOffsets = [];
     let points = layout.probes.length;
     for (const line of layout.lines) {
@@ -122,7 +125,8 @@ export class MediaSimulation {
     if (this.memoryBytes > WASM32_LIMIT_BYTES) {
       throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
     }
-    const engine = instantiateMedia(module);
+    this.module = module;
+    const engine = (options.reuse?.takeEngine(module) as MediaExports | undefined) ?? instantiateMedia(module);
     const claimed = engine.allocate(nx, ny, t.layer, scenario.steps, layout.probes.length, points, frequencies.length,
       full.frequencies.length, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length,
       ...runCounts, maskRows);
@@ -164,8 +168,7 @@ export class MediaSimulation {
       t.a.ca, t.a.cbx, t.a.cby, t.a.cq, t.b.ca, t.b.cb, t.b.cq, t.c.ca, t.c.cb, t.c.cq,
       t.backgroundPoles, t.sourceScale, t.sourceIndex,
     );
-    new Float64Array(engine.memory.buffer, engine.fullGridTable() >>> 0, full.frequencies.length).set(full.frequencies.map((f) => 2 * Math.PI * f * this.dt));
-    engine.setFullGridDecimation(full.decimation);
+    fillFullGridTable(engine.memory, engine.fullGridTable() >>> 0, full, this.dt);
     const { x, y } = t;
     this.f32(PTR.bEx, nx).set(x.bE); this.f32(PTR.aEx, nx).set(x.aE); this.f32(PTR.gEx, nx).set(x.gE);
     this.f32(PTR.bHx, nx).set(x.bH); this.f32(PTR.aHx, nx).set(x.aH); this.f32(PTR.gHx, nx).set(x.gH);
@@ -284,8 +287,8 @@ export class MediaSimulation {
   }
 
   /**
-   * Full-grid running DFT `k` of a (re, im per node, live views), over the samples taken
-   * (each weighted by the decimation), or undefined when there is no such DFT.
+   * Full-grid running DFT `k` of a (re, im per node, live views), over the samples it takes
+   * (n ≡ r mod m, each weighted by m; see `fullGridDecimations`), or undefined when there is none.
    */
   fullGridDft(k = 0): { re: Float32Array; im: Float32Array } | undefined {
     if (!(k >= 0 && k < this.fullGridFrequencies.length)) return undefined;
@@ -298,6 +301,13 @@ export class MediaSimulation {
   }
 
   /** Releases the engine instance and its memory. */
+  /** Disposes this simulation and hands over its engine instance if it was made from `module` (see `SimulationOptions.reuse`). */
+  takeEngine(module: WebAssembly.Module): MediaExports | undefined {
+    const engine = module === this.module ? this.engine : undefined;
+    this.dispose();
+    return engine;
+  }
+
   dispose(): void {
     this.engine = undefined;
   }

@@ -9,10 +9,8 @@ export interface EngineExports {
   allocate(nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number): number;
   setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number): void;
   pointerTo(which: number): number;
-  /** Address of the f64 table of ω·dt of the full-grid DFTs. */
+  /** Address of the table of the full-grid DFTs, 16 bytes each: ω·dt (f64), decimation m and offset r (i32). */
   fullGridTable(): number;
-  /** Samples the full-grid DFTs every `every`-th step, each sample weighted by `every`. */
-  setFullGridDecimation(every: number): void;
   /** Address of the real (imaginary = 0) or imaginary (1) part of full-grid DFT k. */
   fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
@@ -36,7 +34,6 @@ export interface MediaExports {
   ): void;
   pointerTo(which: number): number;
   fullGridTable(): number;
-  setFullGridDecimation(every: number): void;
   fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
   step(count: number): void;
