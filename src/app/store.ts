@@ -133,25 +133,25 @@ export class Store extends EventTarget {
     }
     const previous = this.latestFrame;
     this.latestFrame = frame;
+    // a live frame was never in the film: it goes back once a newer one is on show
+    const done: ShownFrame[] = previous && !previous.film ? [previous] : [];
     if (!frame) {
-      this.giveBack([...this.frames, ...(previous ? [previous] : [])]);
+      done.push(...this.frames);
       this.frames = [];
       this.filmBytes = 0;
-    } else {
-      if (frame.film) {
-        this.frames.push(frame);
-        this.filmBytes += frame.data.byteLength;
-        if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
-          const last = this.frames[this.frames.length - 1];
-          const kept = this.frames.filter((_f, k) => k % 2 === 0);
-          if (kept[kept.length - 1] !== last) kept.push(last);
-          this.giveBack(this.frames.filter((f) => !kept.includes(f)));
-          this.frames = kept;
-          this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
-        }
+    } else if (frame.film) {
+      this.frames.push(frame);
+      this.filmBytes += frame.data.byteLength;
+      if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
+        const last = this.frames[this.frames.length - 1];
+        const kept = this.frames.filter((_f, k) => k % 2 === 0);
+        if (kept[kept.length - 1] !== last) kept.push(last);
+        done.push(...this.frames.filter((f) => !kept.includes(f)));
+        this.frames = kept;
+        this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
       }
-      if (previous && !this.frames.includes(previous)) this.giveBack([previous]);
     }
+    this.giveBack(done);
     for (const listen of this.frameListeners) listen(frame);
   }
 
