@@ -3,7 +3,8 @@
 //
 // Layout, row-major with i fastest: Ez(i, j) at k = j·nx + i; Hx(i, j+½) and Hy(i+½, j)
 // share that index. Memory is claimed once in `allocate` and never grows afterwards, so
-// the views JavaScript holds stay valid for the life of the instance.
+// the views JavaScript holds stay valid for the life of the simulation (an instance may be
+// allocated again for the next one, which clears the memory the last one used).
 //
 // One time step is one sweep over the rows: row j gets its H update (Hx, Hy, their CPML
 // corrections) and then at once its E update, while the rows it touches are still in
@@ -78,9 +79,20 @@ let pointValue: usize = 0; // f64 scratch: Ez at each DFT point this step
 let frequencyCount: i32 = 0;
 let omegaDt: usize = 0; // f64 ω·dt per frequency
 let dft: usize = 0; // f64 (re, im) per frequency per point, frequency-major
-let fullOmegaDt: f64 = 0; // ω·dt of the full-grid DFT; 0 = off
-let fullRe: usize = 0;
-let fullIm: usize = 0;
+// Full-grid running DFTs (the error maps): fullCount frequencies, each a real and an
+// imaginary block of nx·ny floats, claimed one after the other (so block b starts at
+// fullRe + b·fullStride). Frequency f takes Ez sample n when n ≡ r (mod m), weighted by m,
+// with m and r its own. Static tables: per frequency ω·dt (f64), m and r (i32), which
+// JavaScript fills; and per frequency sampled at the step in hand its number and weighted
+// cosine and sine.
+const FULL_GRID_MAX = 1024;
+const fullTable = memory.data(FULL_GRID_MAX << 4, 16); // f64 ω·dt, i32 m, i32 r per frequency
+const fullWeights = memory.data(FULL_GRID_MAX << 4, 16); // i32 f, f32 m·cos, f32 m·sin per sampled frequency
+let fullCount: i32 = 0;
+let fullActive: i32 = 0; // frequencies sampled at the step in hand
+let fullStride: usize = 0;
+let fullRe: usize = 0; // first block: real part of frequency 0
+let fullIm: usize = 0; // imaginary part of frequency 0
 
 let top: usize = 0;
 
@@ -92,13 +104,15 @@ function claim(bytes: usize): usize {
 }
 
 /**
- * Claims memory for one simulation. Returns the bytes claimed, or 0 when the memory cannot
- * grow that far (the caller reports it; nothing is half-built).
+ * Claims memory for one simulation, with `fullGrid` full-grid running DFTs (0 to 1024).
+ * Returns the bytes claimed, or 0 when the memory cannot grow that far or `fullGrid` is out
+ * of range (the caller reports it; nothing is half-built).
  */
 export function allocate(
   nxIn: i32, nyIn: i32, layerIn: i32, steps: i32,
   probes: i32, points: i32, frequencies: i32, fullGrid: i32,
 ): f64 {
+  if (fullGrid < 0 || fullGrid > FULL_GRID_MAX) return 0;
   nx = nxIn; ny = nyIn; layer = layerIn;
   probeCount = probes; pointCount = points; frequencyCount = frequencies;
   sourceLength = steps; seriesLength = steps + 1;
@@ -113,6 +127,11 @@ export function allocate(
   }
   stripVectors = (leftEnd + nx - rightStart + 3) >> 2;
   rowVectors = (nx + 3) >> 2;
+  // An instance may serve one simulation after another (the page's run worker reuses its
+  // memory, which the system has already backed): clear what the last one used, so the new
+  // one starts from zeros as on fresh pages.
+  const used = min(top, <usize>memory.size() << 16);
+  if (used > __heap_base) memory.fill(__heap_base, 0, used - __heap_base);
   top = __heap_base;
   coefficientVectors = claim(64);
   const cells = <usize>nx * <usize>ny;
@@ -135,28 +154,30 @@ export function allocate(
   pointValue = claim(<usize>points << 3);
   omegaDt = claim(<usize>frequencies << 3);
   dft = claim((<usize>points * <usize>frequencies) << 4);
-  if (fullGrid != 0) {
-    fullRe = claim(cells << 2);
-    fullIm = claim(cells << 2);
-  } else {
-    fullRe = 0; fullIm = 0;
+  fullCount = fullGrid;
+  fullActive = 0;
+  fullStride = ((cells << 2) + 63) & ~(<usize>63);
+  fullRe = 0; fullIm = 0;
+  for (let b = 0; b < 2 * fullGrid; b++) {
+    const p = claim(cells << 2);
+    if (b == 0) fullRe = p;
+    if (b == 1) fullIm = p;
   }
   const needPages = <i32>((top + 0xffff) >> 16);
   const havePages = memory.size();
   if (needPages > havePages) {
     if (memory.grow(needPages - havePages) < 0) return 0;
   }
-  // Fresh pages are zero; an instance is used for one simulation, so nothing else to clear.
+  // Fresh pages are zero and the pages used before were cleared above: nothing else to clear.
   return <f64>(top - __heap_base);
 }
 
 export function setUpdateCoefficients(
-  cexIn: f32, ceyIn: f32, chxIn: f32, chyIn: f32, sourceScaleIn: f32, sourceNode: i32, fullOmegaDtIn: f64,
+  cexIn: f32, ceyIn: f32, chxIn: f32, chyIn: f32, sourceScaleIn: f32, sourceNode: i32,
 ): void {
   cex = cexIn; cey = ceyIn; chx = chxIn; chy = chyIn;
   sourceScale = sourceScaleIn; sourceIndex = sourceNode;
   sourceRow = nx > 0 ? sourceNode / nx : 0;
-  fullOmegaDt = fullOmegaDtIn;
   if (ASC_FEATURE_SIMD) {
     v128.store(coefficientVectors, f32x4.splat(chy));
     v128.store(coefficientVectors, f32x4.splat(chx), 16);
@@ -192,6 +213,20 @@ export function pointerTo(which: i32): usize {
     case 27: return pointValue;
   }
   return 0;
+}
+
+/**
+ * The table of the full-grid DFTs for JavaScript to fill, 16 bytes per frequency: ω·dt (f64),
+ * then m and r (i32): the DFT takes the samples n ≡ r (mod m), n ≥ 1, each weighted by m.
+ */
+export function fullGridTable(): usize {
+  return fullTable;
+}
+
+/** Address of the real (`imaginary` = 0) or imaginary part of full-grid DFT `k` (nx·ny floats). */
+export function fullGridAt(k: i32, imaginary: i32): usize {
+  if (k < 0 || k >= fullCount) return 0;
+  return fullRe + (<usize>(2 * k + (imaginary != 0 ? 1 : 0))) * fullStride;
 }
 
 export function stepsDone(): i32 {
@@ -559,40 +594,69 @@ function hxStripRow(j: i32, k0: i32): void {
   stripSegment(j, k0, rightStart, nx, leftEnd, r, true, true, false);
 }
 
-// Running DFT of the whole grid, one row: re += Ez·cos, im −= Ez·sin (float32).
-function fullDftRow(k0: i32, c: f32, s: f32): void {
-  let i = 0;
-  if (ASC_FEATURE_SIMD) {
-    const cv = f32x4.splat(c);
-    const sv = f32x4.splat(s);
-    for (; i + 4 <= nx; i += 4) {
-      const k = k0 + i;
-      const v = vAt(ez, k);
-      vSet(fullRe, k, f32x4.add(vAt(fullRe, k), f32x4.mul(v, cv)));
-      vSet(fullIm, k, f32x4.sub(vAt(fullIm, k), f32x4.mul(v, sv)));
+// Running DFTs of the whole grid at the sample in hand: per frequency sampled, over every
+// node k, re += Ez·c, im −= Ez·s (float32), with (c, s) the sample's weighted cosine and
+// sine. One contiguous pass per frequency after the sweep: long streams run at memory speed,
+// where row-sized pieces between the field updates ran at half of it. Each node sees the same
+// operations in either build.
+function fullDftPass(): void {
+  const total = nx * ny;
+  for (let q = 0; q < fullActive; q++) {
+    const w = fullWeights + (<usize>q << 4);
+    const c = load<f32>(w, 4);
+    const s = load<f32>(w, 8);
+    const re = fullRe + (<usize>(2 * load<i32>(w))) * fullStride;
+    const im = re + fullStride;
+    let k = 0;
+    if (ASC_FEATURE_SIMD) {
+      const cv = f32x4.splat(c);
+      const sv = f32x4.splat(s);
+      for (; k + 16 <= total; k += 16) {
+        const o = <usize>k << 2;
+        const v0 = v128.load(ez + o);
+        const v1 = v128.load(ez + o, 16);
+        const v2 = v128.load(ez + o, 32);
+        const v3 = v128.load(ez + o, 48);
+        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v0, cv)));
+        v128.store(re + o, f32x4.add(v128.load(re + o, 16), f32x4.mul(v1, cv)), 16);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 32), f32x4.mul(v2, cv)), 32);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 48), f32x4.mul(v3, cv)), 48);
+        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v0, sv)));
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 16), f32x4.mul(v1, sv)), 16);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 32), f32x4.mul(v2, sv)), 32);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 48), f32x4.mul(v3, sv)), 48);
+      }
+    }
+    for (; k < total; k++) {
+      const v = f32At(ez, k);
+      f32Set(re, k, f32At(re, k) + v * c);
+      f32Set(im, k, f32At(im, k) - v * s);
     }
   }
-  for (; i < nx; i++) {
-    const k = k0 + i;
-    const v = f32At(ez, k);
-    f32Set(fullRe, k, f32At(fullRe, k) + v * c);
-    f32Set(fullIm, k, f32At(fullIm, k) - v * s);
+}
+
+// The full-grid DFTs that take sample n, with its weights m·cos(ωn·dt), m·sin(ωn·dt) (a
+// sample stands for m steps; src/exact/dft-decimation.ts says why that holds).
+function prepareFullWeights(n: i32): void {
+  let active = 0;
+  for (let f = 0; f < fullCount; f++) {
+    const entry = fullTable + (<usize>f << 4);
+    const m = max(load<i32>(entry, 8), 1);
+    if (n % m != load<i32>(entry, 12)) continue;
+    const phase = load<f64>(entry) * <f64>n;
+    const w = fullWeights + (<usize>active << 4);
+    store<i32>(w, f);
+    store<f32>(w, <f32>(<f64>m * Math.cos(phase)), 4);
+    store<f32>(w, <f32>(<f64>m * Math.sin(phase)), 8);
+    active++;
   }
+  fullActive = active;
 }
 
 // ---- one time step ------------------------------------------------------------------------
 
 function sweep(n: i32): void {
   const last = ny - 1;
-  const doDft = fullRe != 0;
-  let c: f32 = 0;
-  let s: f32 = 0;
-  if (doDft) {
-    // The DFT of row j is taken as soon as row j holds Ez at step n+1 (source included).
-    const phase = fullOmegaDt * <f64>(n + 1);
-    c = <f32>Math.cos(phase);
-    s = <f32>Math.sin(phase);
-  }
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
@@ -609,7 +673,11 @@ function sweep(n: i32): void {
         f32Set(ez, sourceIndex, f32At(ez, sourceIndex) - sourceScale * current);
       }
     }
-    if (doDft) fullDftRow(k0, c, s);
+  }
+  // The full-grid DFTs take the field at step n+1, source included, once the sweep is done.
+  if (fullCount > 0) {
+    prepareFullWeights(n + 1);
+    if (fullActive > 0) fullDftPass();
   }
 }
 

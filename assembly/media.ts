@@ -34,7 +34,8 @@
 // table. Both do the above.
 //
 // Memory is claimed once in `allocate` and never grows afterwards, so the views JavaScript
-// holds stay valid for the life of the instance.
+// holds stay valid for the life of the simulation (an instance may be allocated again for
+// the next one, which clears the memory the last one used).
 //
 // One time step is one sweep over the rows. Row j: b and c of row j (they read a of rows j
 // and j+1, both still old), then a of row j (it reads b of rows j−1 and j and c of row j,
@@ -168,7 +169,16 @@ let pointValue: usize = 0;
 let frequencyCount: i32 = 0;
 let omegaDt: usize = 0;
 let dft: usize = 0;
-let fullOmegaDt: f64 = 0;
+// Full-grid running DFTs of a (the error maps), as in assembly/engine.ts: fullCount
+// frequencies, each a real and an imaginary block of nx·ny floats claimed one after the
+// other (block b at fullRe + b·fullStride); frequency f takes sample n when n ≡ r (mod m),
+// weighted by m; ω·dt, m, r and the weights of the step in hand in static tables.
+const FULL_GRID_MAX = 1024;
+const fullTable = memory.data(FULL_GRID_MAX << 4, 16); // f64 ω·dt, i32 m, i32 r per frequency
+const fullWeights = memory.data(FULL_GRID_MAX << 4, 16); // i32 f, f32 m·cos, f32 m·sin per sampled frequency
+let fullCount: i32 = 0;
+let fullActive: i32 = 0;
+let fullStride: usize = 0;
 let fullRe: usize = 0;
 let fullIm: usize = 0;
 
@@ -183,7 +193,7 @@ function claim(bytes: usize): usize {
 
 /**
  * Claims memory for one simulation. Returns the bytes claimed, or 0 when the memory cannot
- * grow that far. `polarization` 0 = TMz, 1 = TEz; `slots` background state values per node
+ * grow that far or `fullGrid` (full-grid running DFTs, 0 to 1024) is out of range. `polarization` 0 = TMz, 1 = TEz; `slots` background state values per node
  * of each electric component (0 = no background poles); `poles` records in the pole table;
  * `patchA/B/C` patch counts (PEC points apart); `poolSlots` patch state values;
  * `corrections` Debye states at the source point; `runsA/B/C` runs of PEC points;
@@ -196,6 +206,7 @@ export function allocate(
   patchA: i32, patchB: i32, patchC: i32, poolSlots: i32, corrections: i32,
   runsA: i32, runsB: i32, runsC: i32, maskRowsIn: i32,
 ): f64 {
+  if (fullGrid < 0 || fullGrid > FULL_GRID_MAX) return 0;
   nx = nxIn; ny = nyIn; layer = layerIn;
   te = polarization == 1;
   bgSlots = slots;
@@ -213,6 +224,11 @@ export function allocate(
   }
   stripVectors = (leftEnd + nx - rightStart + 3) >> 2;
   rowVectors = (nx + 3) >> 2;
+  // An instance may serve one simulation after another (the page's run worker reuses its
+  // memory, which the system has already backed): clear what the last one used, so the new
+  // one starts from zeros as on fresh pages.
+  const used = min(top, <usize>memory.size() << 16);
+  if (used > __heap_base) memory.fill(__heap_base, 0, used - __heap_base);
   top = __heap_base;
   coefficientVectors = claim(COEFFICIENT_BYTES);
   const cells = <usize>nx * <usize>ny;
@@ -261,31 +277,33 @@ export function allocate(
   pointValue = claim(<usize>points << 3);
   omegaDt = claim(<usize>frequencies << 3);
   dft = claim((<usize>points * <usize>frequencies) << 4);
-  if (fullGrid != 0) {
-    fullRe = claim(cells << 2);
-    fullIm = claim(cells << 2);
-  } else {
-    fullRe = 0; fullIm = 0;
+  fullCount = fullGrid;
+  fullActive = 0;
+  fullStride = ((cells << 2) + 63) & ~(<usize>63);
+  fullRe = 0; fullIm = 0;
+  for (let b = 0; b < 2 * fullGrid; b++) {
+    const p = claim(cells << 2);
+    if (b == 0) fullRe = p;
+    if (b == 1) fullIm = p;
   }
   const needPages = <i32>((top + 0xffff) >> 16);
   const havePages = memory.size();
   if (needPages > havePages) {
     if (memory.grow(needPages - havePages) < 0) return 0;
   }
-  // Fresh pages are zero; an instance is used for one simulation, so nothing else to clear.
+  // Fresh pages are zero and the pages used before were cleared above: nothing else to clear.
   return <f64>(top - __heap_base);
 }
 
 /**
  * Sets the update coefficients (see the header), the background's pole count (its records
- * must already be in the pole table), the source point and its scale, and the frequency of
- * the full-grid DFT (ω·dt; 0 = off).
+ * must already be in the pole table), and the source point and its scale.
  */
 export function setCoefficients(
   caAIn: f32, cbxAIn: f32, cbyAIn: f32, cqAIn: f32,
   caBIn: f32, cbBIn: f32, cqBIn: f32,
   caCIn: f32, cbCIn: f32, cqCIn: f32,
-  backgroundPoles: i32, sourceScaleIn: f32, sourceNode: i32, fullOmegaDtIn: f64,
+  backgroundPoles: i32, sourceScaleIn: f32, sourceNode: i32,
 ): void {
   caA = caAIn; cbxA = cbxAIn; cbyA = cbyAIn; cqA = cqAIn;
   caB = caBIn; cbB = cbBIn; cqB = cqBIn;
@@ -298,7 +316,6 @@ export function setCoefficients(
   bgMode = bgPoleCount == 0 ? NONE : bgPoleCount == 1 ? load<i32>(poleTable) : MANY;
   sourceScale = sourceScaleIn; sourceIndex = sourceNode;
   sourceRow = nx > 0 ? sourceNode / nx : 0;
-  fullOmegaDt = fullOmegaDtIn;
   const v = coefficientVectors;
   store<f32>(v + V_CAA, caA); store<f32>(v + V_CBXA, cbxA); store<f32>(v + V_CBYA, cbyA); store<f32>(v + V_CQA, cqA);
   store<f32>(v + V_CAB, caB); store<f32>(v + V_CBB, cbB); store<f32>(v + V_CQB, cqB);
@@ -349,6 +366,20 @@ export function pointerTo(which: i32): usize {
     case 43: return pecStartC;
   }
   return 0;
+}
+
+/**
+ * The table of the full-grid DFTs for JavaScript to fill, 16 bytes per frequency: ω·dt (f64),
+ * then m and r (i32): the DFT takes the samples n ≡ r (mod m), n ≥ 1, each weighted by m.
+ */
+export function fullGridTable(): usize {
+  return fullTable;
+}
+
+/** Address of the real (`imaginary` = 0) or imaginary part of full-grid DFT `k` (nx·ny floats). */
+export function fullGridAt(k: i32, imaginary: i32): usize {
+  if (k < 0 || k >= fullCount) return 0;
+  return fullRe + (<usize>(2 * k + (imaginary != 0 ? 1 : 0))) * fullStride;
 }
 
 export function stepsDone(): i32 {
@@ -1344,39 +1375,69 @@ function fusedRow(j: i32): void {
   if (rightStart < nx) stripFusedRange(j, rightStart, nx, leftEnd);
 }
 
-// Running DFT of the whole grid, one row: re += a·cos, im −= a·sin (float32).
-function fullDftRow(k0: i32, cs: f32, sn: f32): void {
-  let i = 0;
-  if (ASC_FEATURE_SIMD) {
-    const cv = f32x4.splat(cs);
-    const sv = f32x4.splat(sn);
-    for (; i + 4 <= nx; i += 4) {
-      const o = <usize>(k0 + i) << 2;
-      const v = v128.load(a + o);
-      v128.store(fullRe + o, f32x4.add(v128.load(fullRe + o), f32x4.mul(v, cv)));
-      v128.store(fullIm + o, f32x4.sub(v128.load(fullIm + o), f32x4.mul(v, sv)));
+// Running DFTs of the whole grid at the sample in hand: per frequency sampled, over every
+// node k, re += a·c, im −= a·s (float32), with (c, s) the sample's weighted cosine and
+// sine. One contiguous pass per frequency after the sweep: long streams run at memory speed,
+// where row-sized pieces between the field updates ran at half of it. Each node sees the same
+// operations in either build.
+function fullDftPass(): void {
+  const total = nx * ny;
+  for (let q = 0; q < fullActive; q++) {
+    const w = fullWeights + (<usize>q << 4);
+    const c = load<f32>(w, 4);
+    const s = load<f32>(w, 8);
+    const re = fullRe + (<usize>(2 * load<i32>(w))) * fullStride;
+    const im = re + fullStride;
+    let k = 0;
+    if (ASC_FEATURE_SIMD) {
+      const cv = f32x4.splat(c);
+      const sv = f32x4.splat(s);
+      for (; k + 16 <= total; k += 16) {
+        const o = <usize>k << 2;
+        const v0 = v128.load(a + o);
+        const v1 = v128.load(a + o, 16);
+        const v2 = v128.load(a + o, 32);
+        const v3 = v128.load(a + o, 48);
+        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v0, cv)));
+        v128.store(re + o, f32x4.add(v128.load(re + o, 16), f32x4.mul(v1, cv)), 16);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 32), f32x4.mul(v2, cv)), 32);
+        v128.store(re + o, f32x4.add(v128.load(re + o, 48), f32x4.mul(v3, cv)), 48);
+        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v0, sv)));
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 16), f32x4.mul(v1, sv)), 16);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 32), f32x4.mul(v2, sv)), 32);
+        v128.store(im + o, f32x4.sub(v128.load(im + o, 48), f32x4.mul(v3, sv)), 48);
+      }
+    }
+    for (; k < total; k++) {
+      const v = f32At(a, k);
+      f32Set(re, k, f32At(re, k) + v * c);
+      f32Set(im, k, f32At(im, k) - v * s);
     }
   }
-  for (; i < nx; i++) {
-    const k = k0 + i;
-    const v = f32At(a, k);
-    f32Set(fullRe, k, f32At(fullRe, k) + v * cs);
-    f32Set(fullIm, k, f32At(fullIm, k) - v * sn);
+}
+
+// The full-grid DFTs that take sample n, with its weights m·cos(ωn·dt), m·sin(ωn·dt) (a
+// sample stands for m steps; src/exact/dft-decimation.ts says why that holds).
+function prepareFullWeights(n: i32): void {
+  let active = 0;
+  for (let f = 0; f < fullCount; f++) {
+    const entry = fullTable + (<usize>f << 4);
+    const m = max(load<i32>(entry, 8), 1);
+    if (n % m != load<i32>(entry, 12)) continue;
+    const phase = load<f64>(entry) * <f64>n;
+    const w = fullWeights + (<usize>active << 4);
+    store<i32>(w, f);
+    store<f32>(w, <f32>(<f64>m * Math.cos(phase)), 4);
+    store<f32>(w, <f32>(<f64>m * Math.sin(phase)), 8);
+    active++;
   }
+  fullActive = active;
 }
 
 // ---- one time step ------------------------------------------------------------------------
 
 function sweep(n: i32): void {
   const last = ny - 1;
-  const doDft = fullRe != 0;
-  let cs: f32 = 0;
-  let sn: f32 = 0;
-  if (doDft) {
-    const phase = fullOmegaDt * <f64>(n + 1);
-    cs = <f32>Math.cos(phase);
-    sn = <f32>Math.sin(phase);
-  }
   for (let j = 0; j <= last; j++) {
     const k0 = j * nx;
     if (j == 0 || j == last) {
@@ -1408,7 +1469,11 @@ function sweep(n: i32): void {
         }
       }
     }
-    if (doDft) fullDftRow(k0, cs, sn);
+  }
+  // The full-grid DFTs take the field at step n+1, source included, once the sweep is done.
+  if (fullCount > 0) {
+    prepareFullWeights(n + 1);
+    if (fullActive > 0) fullDftPass();
   }
 }
 

@@ -35,6 +35,7 @@ export class AppController {
       message: (m) => this.onWorkerMessage(m),
       crash: (message) => this.onWorkerCrash(message),
     });
+    store.onFrameDemand((d) => this.client.send(d));
   }
 
   /** Resolves when the run worker has its engine compiled. */

@@ -1,8 +1,11 @@
 /**
- * Replaying a run in the field view: the store keeps the Ez frames of the current or last
- * run (its "film"); this controller decides which frame is on show (the newest while a run
- * steps, a chosen one afterwards), plays the film at about 24 frames a second, scrubs to a
- * frame, and when a run ends replays it up to its most telling frame.
+ * Live frames and replay in the field view: the store keeps the Ez frames of the current or
+ * last run (its "film"); this controller decides which frame is on show (the newest while a
+ * run steps, a chosen one afterwards), plays the film at about 24 frames a second, scrubs to
+ * a frame, and when a run ends replays it up to its most telling frame. While a run steps it
+ * asks for the next frame each time the newest has been painted, only while the view is on
+ * screen (an IntersectionObserver: a hidden section or a view scrolled away counts as off),
+ * so frames arrive at the display's rate or slower and none are made for nobody.
  */
 import type { ReactiveController, ReactiveControllerHost } from 'lit';
 import { IntervalController, SubscriptionController } from './controllers.ts';
@@ -14,10 +17,16 @@ export interface FrameSource {
   /** Every frame of the current or last run, oldest first. */
   readonly film: readonly ShownFrame[];
   onFrame(listen: (f: ShownFrame | undefined) => void): () => void;
+  /** Asks the run for the next frame. */
+  requestFrame(): void;
+  /** Tells the run whether the view is on screen. */
+  fieldOnScreen(visible: boolean): void;
 }
 
 /** Milliseconds between replayed frames (about 24 a second). */
 const REPLAY_INTERVAL_MS = 42;
+/** While a run steps on screen, ask again this often in case a request was lost (a restarted worker). */
+const REQUEST_AGAIN_MS = 400;
 
 /**
  * The most telling frame of a finished run: the last one before the absorber has taken a
@@ -43,14 +52,21 @@ export class FilmPlayer implements ReactiveController {
   playing = false;
   /** True while a run steps: the newest frame is shown and the film cannot be replayed. */
   live = false;
+  /** The view is on screen (as far as the IntersectionObserver has said). */
+  onScreen = true;
   private end = 0;
   private readonly timer: IntervalController;
+  private readonly askAgain: IntervalController;
   private readonly feed: SubscriptionController<ShownFrame | undefined>;
+  private observer: IntersectionObserver | undefined;
+  /** The newest frame that a request was made after, so one painted frame asks once. */
+  private askedAfter: ShownFrame | undefined;
 
   /** `changed` is called on every new frame and every replay step (the host redraws). */
   constructor(private readonly host: ReactiveControllerHost & HTMLElement, private readonly source: () => FrameSource | undefined, private readonly changed: () => void) {
     host.addController(this);
     this.timer = new IntervalController(host, () => this.advance());
+    this.askAgain = new IntervalController(host, () => this.ask());
     this.feed = new SubscriptionController(host, () => {
       const s = this.source();
       return s ? (listen) => s.onFrame(listen) : undefined;
@@ -78,8 +94,34 @@ export class FilmPlayer implements ReactiveController {
   setLive(live: boolean): void {
     if (live === this.live) return;
     this.live = live;
-    if (live) this.rewind();
-    else if (this.film.length > 1) this.play(0, tellingFrame(this.film));
+    if (live) {
+      this.rewind();
+      this.askedAfter = undefined;
+      this.ask();
+      this.askAgain.start(REQUEST_AGAIN_MS);
+    } else {
+      this.askAgain.stop();
+      if (this.film.length > 1) this.play(0, tellingFrame(this.film));
+    }
+  }
+
+  /** The host has painted `frame`: when it is the newest live one, ask for the next. */
+  painted(frame: ShownFrame | undefined): void {
+    const newest = this.source()?.frame;
+    if (!this.live || !frame || frame !== newest || frame === this.askedAfter) return;
+    this.askedAfter = frame;
+    this.ask();
+  }
+
+  private ask(): void {
+    if (this.live && this.onScreen) this.source()?.requestFrame();
+  }
+
+  private setOnScreen(visible: boolean): void {
+    if (visible === this.onScreen) return;
+    this.onScreen = visible;
+    this.source()?.fieldOnScreen(visible);
+    this.ask();
   }
 
   /** Steps through the film from `from` to `to`. */
@@ -121,6 +163,16 @@ export class FilmPlayer implements ReactiveController {
     this.changed();
   }
 
-  hostConnected(): void {}
-  hostDisconnected(): void { this.playing = false; }
+  hostConnected(): void {
+    if (typeof IntersectionObserver === 'undefined') return;
+    this.observer = new IntersectionObserver((entries) => this.setOnScreen(entries[entries.length - 1].isIntersecting));
+    this.observer.observe(this.host);
+  }
+
+  hostDisconnected(): void {
+    this.playing = false;
+    this.observer?.disconnect();
+    this.observer = undefined;
+    this.setOnScreen(false);
+  }
 }

@@ -7,27 +7,40 @@
  * saying plainly that those apply to the next run.
  */
 import type { ErrorMap } from '../compare/error-map.ts';
+import type { SimulationOptions } from '../engine/simulation.ts';
 import type { DerivedQuantities } from '../scenario/derived.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatSI } from '../scenario/units.ts';
 
 /**
- * Full-grid DFTs one engine run keeps. Today's Simulation takes one (`fullGridFrequency`);
- * when it takes `fullGridFrequencies`, this becomes Infinity and the run worker passes the list.
+ * Full-grid DFTs one engine run keeps: as many as asked (`fullGridFrequencies`, taken in one
+ * pass every few steps), so the memory cap alone limits the maps of a run.
  */
-export const ENGINE_MAPS_PER_RUN = 1;
+export const ENGINE_MAPS_PER_RUN = Infinity;
 
 /**
  * The frequencies the next run maps, Hz: the chosen one first (when the scenario has it),
  * then the scenario's others in order, as many as fit beside the run and the engine keeps.
  *
  * @example
- * plannedMaps(demo, deriveQuantities(demo), 1e10); // [1e10] with one map per run
+ * plannedMaps(demo, deriveQuantities(demo), 1e10); // [1e10, 5e9, 1.5e10]
  */
 export function plannedMaps(s: Scenario, d: DerivedQuantities, chosenHz: number | undefined): number[] {
   const first = chosenHz !== undefined && s.frequencies.includes(chosenHz) ? [chosenHz] : [];
   const order = [...first, ...s.frequencies.filter((f) => !first.includes(f))];
   return order.slice(0, Math.min(ENGINE_MAPS_PER_RUN, d.errorMapsFitting));
+}
+
+/**
+ * Engine options for the full-grid DFTs behind the error maps at `frequencies` (Hz), as the
+ * run worker and the page benchmark create their simulations: all in one pass, sampled every
+ * few steps as the pulse's band allows (src/exact/dft-decimation.ts).
+ *
+ * @example
+ * mapOptions([1e10, 5e9]); // { fullGridFrequencies: [1e10, 5e9] }
+ */
+export function mapOptions(frequencies: readonly number[]): SimulationOptions {
+  return frequencies.length > 0 ? { fullGridFrequencies: [...frequencies] } : {};
 }
 
 export interface MapOption { f_Hz: number; label: string; mapped: boolean }

@@ -1,5 +1,10 @@
 import type { FromWorker, ToWorker } from './protocol.ts';
 
+/** Posts a command, handing over (not copying) the buffers it gives back. */
+function post(worker: Worker, message: ToWorker): void {
+  worker.postMessage(message, message.type === 'recycle' ? message.buffers : []);
+}
+
 export interface RunClientHandlers {
   message(m: FromWorker): void;
   /** The worker died (an uncaught error, or it could not load); a fresh one is started. */
@@ -8,8 +13,9 @@ export interface RunClientHandlers {
 
 /**
  * Owns the run worker: starts it, holds commands until it has said "ready", and replaces
- * it when it crashes, so the page recovers without a reload. A worker that dies before it
- * is ready twice in a row is not started again (the script or engine cannot load).
+ * it when it crashes, so the page recovers without a reload (telling the fresh worker
+ * whether the field view is on screen). A worker that dies before it is ready twice in a
+ * row is not started again (the script or engine cannot load).
  */
 export class RunClient {
   private worker!: Worker;
@@ -18,6 +24,8 @@ export class RunClient {
   private pending: ToWorker[] = [];
   private earlyDeaths = 0;
   private dead = false;
+  /** The page's last word on whether the field view is on screen, told again to a fresh worker. */
+  private view: (ToWorker & { type: 'view' }) | undefined;
 
   constructor(private readonly handlers: RunClientHandlers) {
     this.spawn();
@@ -38,7 +46,8 @@ export class RunClient {
         if (event.data === 'ready') {
           this.isReady = true;
           this.earlyDeaths = 0;
-          for (const m of this.pending.splice(0)) worker.postMessage(m);
+          if (this.view && !this.pending.includes(this.view)) worker.postMessage(this.view);
+          for (const m of this.pending.splice(0)) post(worker, m);
           resolve();
           return;
         }
@@ -69,8 +78,9 @@ export class RunClient {
 
   /** Sends a command now, or as soon as the worker is ready. False when no worker can run. */
   send(message: ToWorker): boolean {
+    if (message.type === 'view') this.view = message;
     if (this.dead) return false;
-    if (this.isReady) this.worker.postMessage(message);
+    if (this.isReady) post(this.worker, message);
     else this.pending.push(message);
     return true;
   }

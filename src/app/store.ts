@@ -4,8 +4,10 @@
  * down as properties and turns the components' events into controller actions
  * (src/app/controller.ts), which call `set`.
  *
- * Ez frames change thirty times a second, so they bypass the reactive state: the field
- * view subscribes to them and draws in requestAnimationFrame.
+ * Ez frames change many times a second, so they bypass the reactive state: the field
+ * view subscribes to them and draws in requestAnimationFrame, and asks for the next frame
+ * through the store (`requestFrame`, `fieldOnScreen`), which the controller passes to the
+ * run worker.
  */
 import type { ErrorMap } from '../compare/error-map.ts';
 import type { RunResults } from '../compare/results.ts';
@@ -14,7 +16,7 @@ import type { Warning } from '../scenario/warnings.ts';
 import type { ParseResult, Scenario } from '../scenario/types.ts';
 import type { DisplayUnits, Draft } from './draft.ts';
 import { frameStats, type FrameStats } from './frame-stats.ts';
-import type { FieldFrame } from './protocol.ts';
+import type { FieldFrame, RunTimings } from './protocol.ts';
 import type { View } from './persist.ts';
 import type { ThemeName } from './theme.ts';
 
@@ -32,7 +34,7 @@ export interface RunState {
   /** Why a run failed, or a note about how it ended. */
   message?: string;
   /** Where the worker's time went, ms (for the benchmark). */
-  timings?: { setup: number; stepping: number; results: number; errorMap: number };
+  timings?: RunTimings;
   /** Field energy left at the end of the last run over its peak, dB (for its warning). */
   energyLeftDb?: number;
   /** Why the last run ended early, if it did. */
@@ -72,6 +74,12 @@ export interface AppState {
 /** An Ez frame with the figures the field view needs (worked out on arrival, off the worker's clock). */
 export type ShownFrame = FieldFrame & FrameStats;
 
+/**
+ * What the page asks of the run: the next frame, replay frames on or off as the field view
+ * comes on or goes off screen, and the buffers of frames it is done with, given back.
+ */
+export type FrameDemand = { type: 'frame' } | { type: 'view'; visible: boolean } | { type: 'recycle'; buffers: ArrayBuffer[] };
+
 /** Bytes of Ez frames kept for replaying a run; beyond it every other frame is dropped. */
 const FILM_BUDGET_BYTES = 96 * 2 ** 20;
 
@@ -81,6 +89,9 @@ export class Store extends EventTarget {
   private frames: ShownFrame[] = [];
   private filmBytes = 0;
   private readonly frameListeners = new Set<(f: ShownFrame | undefined) => void>();
+  private readonly demandListeners = new Set<(d: FrameDemand) => void>();
+  /** Frames received and the main-thread milliseconds their figures took (read by the page benchmark). */
+  readonly frameCosts = { count: 0, ms: 0 };
 
   constructor(initial: AppState) {
     super();
@@ -109,29 +120,67 @@ export class Store extends EventTarget {
     return this.frames;
   }
 
-  /** Shows a new frame and keeps it for replay; undefined clears the view and the film. */
+  /**
+   * Shows a new frame, and keeps it for replay when it is a film frame; undefined clears the
+   * view and the film. Frames no longer shown or kept go back to the run worker for reuse.
+   */
   setFrame(incoming: FieldFrame | undefined): void {
+    const t0 = performance.now();
     const frame: ShownFrame | undefined = incoming && { ...incoming, ...frameStats(incoming.data) };
+    if (incoming) {
+      this.frameCosts.count++;
+      this.frameCosts.ms += performance.now() - t0;
+    }
+    const previous = this.latestFrame;
     this.latestFrame = frame;
+    // a live frame was never in the film: it goes back once a newer one is on show
+    const done: ShownFrame[] = previous && !previous.film ? [previous] : [];
     if (!frame) {
+      done.push(...this.frames);
       this.frames = [];
       this.filmBytes = 0;
-    } else {
+    } else if (frame.film) {
       this.frames.push(frame);
       this.filmBytes += frame.data.byteLength;
       if (this.filmBytes > FILM_BUDGET_BYTES && this.frames.length > 2) {
         const last = this.frames[this.frames.length - 1];
-        this.frames = this.frames.filter((_f, k) => k % 2 === 0);
-        if (this.frames[this.frames.length - 1] !== last) this.frames.push(last);
+        const kept = this.frames.filter((_f, k) => k % 2 === 0);
+        if (kept[kept.length - 1] !== last) kept.push(last);
+        done.push(...this.frames.filter((f) => !kept.includes(f)));
+        this.frames = kept;
         this.filmBytes = this.frames.reduce((n, f) => n + f.data.byteLength, 0);
       }
     }
+    this.giveBack(done);
     for (const listen of this.frameListeners) listen(frame);
+  }
+
+  /** Hands the buffers of frames no longer shown or kept to the run worker (each once). */
+  private giveBack(frames: readonly ShownFrame[]): void {
+    const buffers = [...new Set(frames.map((f) => f.data.buffer as ArrayBuffer))].filter((b) => b.byteLength > 0);
+    if (buffers.length === 0) return;
+    for (const listen of this.demandListeners) listen({ type: 'recycle', buffers });
   }
 
   /** Calls `listen` on every new Ez frame; returns the unsubscribe function. */
   onFrame(listen: (f: ShownFrame | undefined) => void): () => void {
     this.frameListeners.add(listen);
     return () => this.frameListeners.delete(listen);
+  }
+
+  /** The field view has painted the newest frame and wants the next one. */
+  requestFrame(): void {
+    for (const listen of this.demandListeners) listen({ type: 'frame' });
+  }
+
+  /** The field view came on screen (true) or went off it (false). */
+  fieldOnScreen(visible: boolean): void {
+    for (const listen of this.demandListeners) listen({ type: 'view', visible });
+  }
+
+  /** Calls `listen` on every request of the field view (the controller sends them to the run worker). */
+  onFrameDemand(listen: (d: FrameDemand) => void): () => void {
+    this.demandListeners.add(listen);
+    return () => this.demandListeners.delete(listen);
   }
 }

@@ -2,7 +2,7 @@ import { layoutOf, type Layout } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import type { MaterialMap } from './material-map.ts';
 import { mediaMemoryBytes } from '../scenario/media-memory.ts';
-import type { Complex, SimulationOptions } from './simulation.ts';
+import { fillFullGridTable, fullGridPlan, type Complex, type SimulationOptions } from './simulation.ts';
 import { instantiateMedia, loadMediaModule, type MediaExports } from './wasm.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
@@ -16,7 +16,7 @@ const PTR = {
   bEx: 3, aEx: 4, gEx: 5, bHx: 6, aHx: 7, gHx: 8,
   bEy: 9, aEy: 10, gEy: 11, bHy: 12, aHy: 13, gHy: 14,
   source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
-  fullRe: 21, fullIm: 22, poleTable: 26, statesA: 27,
+  poleTable: 26, statesA: 27,
   patchesA: 30, patchesB: 31, patchesC: 32, rowStartA: 33, rowStartB: 34, rowStartC: 35,
   patchPool: 36, sourceCorrections: 37, pecRunsA: 38, pecRunsB: 39, pecRunsC: 40, pecStartA: 41, pecStartB: 42, pecStartC: 43,
 } as const;
@@ -69,9 +69,16 @@ export class MediaSimulation {
   readonly layout: Layout;
   readonly dt: number;
   readonly memoryBytes: number;
+  /** Frequency of the first full-grid DFT, Hz (undefined without one). */
   readonly fullGridFrequency: number | undefined;
+  /** Frequencies of the full-grid DFTs, Hz, in the order asked for. */
+  readonly fullGridFrequencies: readonly number[];
+  /** Per full-grid DFT, its decimation m and offset r: it takes the samples n ≡ r (mod m), each weighted by m. */
+  readonly fullGridDecimations: readonly number[];
+  readonly fullGridOffsets: readonly number[];
   readonly tables: MediaTables;
   private engine: MediaExports | undefined;
+  private readonly module: WebAssembly.Module;
   private readonly lineOffsets: number[];
   private readonly pointCount: number;
 
@@ -86,7 +93,11 @@ export class MediaSimulation {
     this.dt = layout.dt;
     const { nx, ny } = layout;
     const t = (this.tables = mediaTables(scenario, map));
-    this.fullGridFrequency = options.fullGridFrequency;
+    const full = fullGridPlan(scenario, layout, options);
+    this.fullGridFrequencies = full.frequencies;
+    this.fullGridFrequency = full.frequencies[0];
+    this.fullGridDecimations = full.decimations;
+    this.fullGridOffsets = full.offsets;
     this.lineOffsets = [];
     let points = layout.probes.length;
     for (const line of layout.lines) {
@@ -107,16 +118,17 @@ export class MediaSimulation {
     const maskRows = new Set([...runs.b, ...runs.c].filter((_, n) => n % 2 === 0).map((k) => Math.floor(k / nx))).size;
     this.memoryBytes = mediaMemoryBytes({
       nx, ny, cells: t.layer, steps: scenario.steps, probes: layout.probes.length,
-      dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
+      dftPoints: points, frequencies: frequencies.length, fullGridDft: full.frequencies.length,
       polarization: t.te ? 'TEz' : 'TMz', stateSlots: t.slots, poleRecords: t.poles.length, patches: counts,
       poolSlots: t.poolSlots, sourceCorrections: t.sourceStates.length, pecRuns: runCounts, maskRows,
     });
     if (this.memoryBytes > WASM32_LIMIT_BYTES) {
       throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
     }
-    const engine = instantiateMedia(module);
+    this.module = module;
+    const engine = (options.reuse?.takeEngine(module) as MediaExports | undefined) ?? instantiateMedia(module);
     const claimed = engine.allocate(nx, ny, t.layer, scenario.steps, layout.probes.length, points, frequencies.length,
-      options.fullGridFrequency !== undefined ? 1 : 0, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length,
+      full.frequencies.length, t.te ? 1 : 0, t.slots, t.poles.length, ...counts, t.poolSlots, t.sourceStates.length,
       ...runCounts, maskRows);
     if (claimed === 0) {
       throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
@@ -155,8 +167,8 @@ export class MediaSimulation {
     engine.setCoefficients(
       t.a.ca, t.a.cbx, t.a.cby, t.a.cq, t.b.ca, t.b.cb, t.b.cq, t.c.ca, t.c.cb, t.c.cq,
       t.backgroundPoles, t.sourceScale, t.sourceIndex,
-      options.fullGridFrequency !== undefined ? 2 * Math.PI * options.fullGridFrequency * this.dt : 0,
     );
+    fillFullGridTable(engine.memory, engine.fullGridTable() >>> 0, full, this.dt);
     const { x, y } = t;
     this.f32(PTR.bEx, nx).set(x.bE); this.f32(PTR.aEx, nx).set(x.aE); this.f32(PTR.gEx, nx).set(x.gE);
     this.f32(PTR.bHx, nx).set(x.bH); this.f32(PTR.aHx, nx).set(x.aH); this.f32(PTR.gHx, nx).set(x.gH);
@@ -274,14 +286,28 @@ export class MediaSimulation {
     return [re, im];
   }
 
-  /** The full-grid running DFT of a (re, im per node), or undefined when not requested. */
-  fullGridDft(): { re: Float32Array; im: Float32Array } | undefined {
-    if (this.fullGridFrequency === undefined) return undefined;
+  /**
+   * Full-grid running DFT `k` of a (re, im per node, live views), over the samples it takes
+   * (n ≡ r mod m, each weighted by m; see `fullGridDecimations`), or undefined when there is none.
+   */
+  fullGridDft(k = 0): { re: Float32Array; im: Float32Array } | undefined {
+    if (!(k >= 0 && k < this.fullGridFrequencies.length)) return undefined;
+    const e = this.live();
     const size = this.layout.nx * this.layout.ny;
-    return { re: this.f32(PTR.fullRe, size), im: this.f32(PTR.fullIm, size) };
+    return {
+      re: new Float32Array(e.memory.buffer, e.fullGridAt(k, 0) >>> 0, size),
+      im: new Float32Array(e.memory.buffer, e.fullGridAt(k, 1) >>> 0, size),
+    };
   }
 
   /** Releases the engine instance and its memory. */
+  /** Disposes this simulation and hands over its engine instance if it was made from `module` (see `SimulationOptions.reuse`). */
+  takeEngine(module: WebAssembly.Module): MediaExports | undefined {
+    const engine = module === this.module ? this.engine : undefined;
+    this.dispose();
+    return engine;
+  }
+
   dispose(): void {
     this.engine = undefined;
   }

@@ -7,6 +7,7 @@ import { waveformValue } from '../scenario/waveforms.ts';
 import { instantiateEngine, loadEngineModule, type EngineExports } from './wasm.ts';
 import { driveSync } from './batch-driver.ts';
 import type { Complex } from '../exact/complex.ts';
+import { fullGridDecimation } from '../exact/dft-decimation.ts';
 import { isSimpleMedium } from '../exact/medium.ts';
 
 /** The most memory one engine instance can address (wasm32), less a margin for its own data. */
@@ -15,8 +16,86 @@ const WASM32_LIMIT_BYTES = 4 * 2 ** 30 - 2 ** 26;
 export type { Complex } from '../exact/complex.ts';
 
 export interface SimulationOptions {
-  /** Frequency of the optional full-grid running DFT (for the page's error map), Hz. */
+  /** Frequency of one full-grid running DFT sampled at every step (the report's error map), Hz. */
   fullGridFrequency?: number;
+  /**
+   * Frequencies of full-grid running DFTs (the page's error maps), Hz, taken in one pass and
+   * sampled every m-th step, m chosen from the pulse's band so that aliases stay 80 dB below
+   * the wanted value (src/exact/dft-decimation.ts). Takes the place of `fullGridFrequency`.
+   */
+  fullGridFrequencies?: readonly number[];
+  /** Decimation of every full-grid DFT instead of the ones chosen, all sampled at the same steps (1 = every step). */
+  fullGridDecimation?: number;
+  /**
+   * A finished simulation whose engine instance this one takes over (disposing it), when it
+   * ran on the same engine: memory the system has already backed is not faulted in again,
+   * which on some machines costs more than the steps. The page's run worker passes its last run.
+   */
+  reuse?: { takeEngine(module: WebAssembly.Module): unknown };
+}
+
+/** How the full-grid DFTs sample the field. */
+export interface FullGridPlan {
+  /** Frequencies, Hz, in the order asked for. */
+  frequencies: number[];
+  /** Per frequency, the decimation m: a sample every m steps, weighted by m. */
+  decimations: number[];
+  /** Per frequency, the offset r (0 ≤ r < m): the samples n ≡ r (mod m), n ≥ 1. */
+  offsets: number[];
+}
+
+/** Most full-grid DFTs one engine keeps (assembly/engine.ts and media.ts, FULL_GRID_MAX). */
+export const FULL_GRID_MAX = 1024;
+
+/**
+ * The full-grid DFTs a simulation keeps: their frequencies and how each samples the field.
+ * With `fullGridFrequencies` each frequency gets its own decimation from
+ * {@link fullGridDecimation} for the scenario's pulse, time step and medium (lossy media
+ * weigh aliases by their attenuation over the farthest node), and offsets spread over the
+ * decimation so that the DFTs seldom take the same step: a step that updates one map's
+ * accumulators instead of all of them leaves the fields in cache. Aliases keep their
+ * magnitudes whatever the offset, so the bound is the same. `fullGridFrequency` alone keeps
+ * every step, as the report always has; `fullGridDecimation` sets one decimation for all,
+ * offset 0.
+ *
+ * @example
+ * fullGridPlan(demo, layoutOf(demo), { fullGridFrequencies: [5e9, 1e10, 1.5e10] });
+ * // { frequencies: [5e9, 1e10, 1.5e10], decimations: [22, 19, 16], offsets: [0, 6, 10] }
+ */
+export function fullGridPlan(scenario: Scenario, layout: Layout, options: SimulationOptions): FullGridPlan {
+  const frequencies = options.fullGridFrequencies !== undefined ? [...options.fullGridFrequencies]
+    : options.fullGridFrequency !== undefined ? [options.fullGridFrequency] : [];
+  if (frequencies.length > FULL_GRID_MAX) {
+    throw new Error(`fullGridFrequencies: ${frequencies.length} full-grid DFTs asked for; one engine keeps at most ${FULL_GRID_MAX}`);
+  }
+  if (!frequencies.every((f) => Number.isFinite(f) && f > 0)) {
+    throw new Error('fullGridFrequencies: every full-grid DFT frequency must be a finite number of Hz above 0');
+  }
+  const forced = options.fullGridDecimation;
+  if (forced !== undefined && !(Number.isInteger(forced) && forced >= 1)) {
+    throw new Error(`fullGridDecimation: ${forced} is not a whole number of steps of at least 1`);
+  }
+  if (forced !== undefined || options.fullGridFrequencies === undefined) {
+    return { frequencies, decimations: frequencies.map(() => forced ?? 1), offsets: frequencies.map(() => 0) };
+  }
+  const { nx, ny, dx, dy, source } = layout;
+  const sx = source.i * dx;
+  const sy = source.j * dy;
+  const reach = Math.max(...[[0, 0], [nx - 1, 0], [0, ny - 1], [nx - 1, ny - 1]].map(([i, j]) => Math.hypot(i * dx - sx, j * dy - sy)));
+  const decimations = frequencies.map((f) => fullGridDecimation({ waveform: scenario.source.waveform, dt: layout.dt, frequencies: [f], medium: scenario.medium, reach }));
+  const offsets = decimations.map((m, k) => Math.floor((k * m) / frequencies.length) % m);
+  return { frequencies, decimations, offsets };
+}
+
+/** Writes a plan into an engine's table of full-grid DFTs (16 bytes each: ω·dt, m, r). */
+export function fillFullGridTable(memory: WebAssembly.Memory, address: number, plan: FullGridPlan, dt: number): void {
+  const f64 = new Float64Array(memory.buffer, address, 2 * plan.frequencies.length);
+  const i32 = new Int32Array(memory.buffer, address, 4 * plan.frequencies.length);
+  plan.frequencies.forEach((f, k) => {
+    f64[2 * k] = 2 * Math.PI * f * dt;
+    i32[4 * k + 2] = plan.decimations[k];
+    i32[4 * k + 3] = plan.offsets[k];
+  });
 }
 
 // Indices of engine buffers, as in assembly/engine.ts `pointerTo`.
@@ -25,7 +104,6 @@ const PTR = {
   bEx: 3, aEx: 4, gEx: 5, bHx: 6, aHx: 7, gHx: 8,
   bEy: 9, aEy: 10, gEy: 11, bHy: 12, aHy: 13, gHy: 14,
   source: 15, probeIndex: 16, series: 17, pointIndex: 18, omegaDt: 19, dft: 20,
-  fullRe: 21, fullIm: 22,
 } as const;
 
 /**
@@ -38,8 +116,15 @@ export class Simulation {
   readonly layout: Layout;
   readonly dt: number;
   readonly memoryBytes: number;
+  /** Frequency of the first full-grid DFT, Hz (undefined without one). */
   readonly fullGridFrequency: number | undefined;
+  /** Frequencies of the full-grid DFTs, Hz, in the order asked for. */
+  readonly fullGridFrequencies: readonly number[];
+  /** Per full-grid DFT, its decimation m and offset r: it takes the Ez samples n ≡ r (mod m), each weighted by m. */
+  readonly fullGridDecimations: readonly number[];
+  readonly fullGridOffsets: readonly number[];
   private engine: EngineExports | undefined;
+  private readonly module: WebAssembly.Module;
   private readonly lineOffsets: number[];
   private readonly pointCount: number;
 
@@ -58,7 +143,11 @@ export class Simulation {
     const { nx, ny, dx, dy } = layout;
     const L = scenario.absorber.cells;
     const epsR = scenario.medium.epsR;
-    this.fullGridFrequency = options.fullGridFrequency;
+    const full = fullGridPlan(scenario, layout, options);
+    this.fullGridFrequencies = full.frequencies;
+    this.fullGridFrequency = full.frequencies[0];
+    this.fullGridDecimations = full.decimations;
+    this.fullGridOffsets = full.offsets;
     this.lineOffsets = [];
     let points = layout.probes.length;
     for (const line of layout.lines) {
@@ -69,7 +158,7 @@ export class Simulation {
     const frequencies = scenario.frequencies;
     this.memoryBytes = engineMemoryBytes({
       nx, ny, cells: L, steps: scenario.steps, probes: layout.probes.length,
-      dftPoints: points, frequencies: frequencies.length, fullGridDft: options.fullGridFrequency !== undefined,
+      dftPoints: points, frequencies: frequencies.length, fullGridDft: full.frequencies.length,
     });
 
     // WebAssembly memory is addressed with 32 bits: beyond 4 GiB the engine's offsets would
@@ -77,9 +166,9 @@ export class Simulation {
     if (this.memoryBytes > WASM32_LIMIT_BYTES) {
       throw new Error(`grid.nx: a ${nx} × ${ny} grid needs ${(this.memoryBytes / 2 ** 30).toFixed(1)} GiB, beyond the 4 GiB one WebAssembly engine can address; use a smaller grid or fewer steps`);
     }
-    const engine = instantiateEngine(module);
-    const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length,
-      options.fullGridFrequency !== undefined ? 1 : 0);
+    this.module = module;
+    const engine = (options.reuse?.takeEngine(module) as EngineExports | undefined) ?? instantiateEngine(module);
+    const claimed = engine.allocate(nx, ny, L, scenario.steps, layout.probes.length, points, frequencies.length, full.frequencies.length);
     if (claimed === 0) {
       throw new Error(`grid.nx: the engine could not get ${(this.memoryBytes / 2 ** 20).toFixed(0)} MiB for a ${nx} × ${ny} grid; use a smaller grid or fewer steps`);
     }
@@ -89,8 +178,8 @@ export class Simulation {
     engine.setUpdateCoefficients(
       dt / (eps * dx), dt / (eps * dy), dt / (MU0 * dx), dt / (MU0 * dy),
       dt / (eps * dx * dy), layout.source.j * nx + layout.source.i,
-      options.fullGridFrequency !== undefined ? 2 * Math.PI * options.fullGridFrequency * dt : 0,
     );
+    fillFullGridTable(engine.memory, engine.fullGridTable() >>> 0, full, dt);
 
     const x = cpmlAxisTables(nx, scenario.absorber, dx, dt, epsR);
     const y = cpmlAxisTables(ny, scenario.absorber, dy, dt, epsR);
@@ -210,14 +299,28 @@ export class Simulation {
     return [re, im];
   }
 
-  /** The full-grid running DFT (re, im per node), or undefined when not requested. */
-  fullGridDft(): { re: Float32Array; im: Float32Array } | undefined {
-    if (this.fullGridFrequency === undefined) return undefined;
+  /**
+   * Full-grid running DFT `k` (re, im per node, live views), Σ_n m·Ez[n]·e^{−jωn·dt} over the
+   * samples it takes (n ≡ r mod m, see `fullGridDecimations`), or undefined when there is none.
+   */
+  fullGridDft(k = 0): { re: Float32Array; im: Float32Array } | undefined {
+    if (!(k >= 0 && k < this.fullGridFrequencies.length)) return undefined;
+    const e = this.live();
     const size = this.layout.nx * this.layout.ny;
-    return { re: this.f32(PTR.fullRe, size), im: this.f32(PTR.fullIm, size) };
+    return {
+      re: new Float32Array(e.memory.buffer, e.fullGridAt(k, 0) >>> 0, size),
+      im: new Float32Array(e.memory.buffer, e.fullGridAt(k, 1) >>> 0, size),
+    };
   }
 
   /** Releases the engine instance and its memory. */
+  /** Disposes this simulation and hands over its engine instance if it was made from `module` (see `SimulationOptions.reuse`). */
+  takeEngine(module: WebAssembly.Module): EngineExports | undefined {
+    const engine = module === this.module ? this.engine : undefined;
+    this.dispose();
+    return engine;
+  }
+
   dispose(): void {
     this.engine = undefined;
   }

@@ -7,8 +7,12 @@
 export interface EngineExports {
   memory: WebAssembly.Memory;
   allocate(nx: number, ny: number, layer: number, steps: number, probes: number, points: number, frequencies: number, fullGrid: number): number;
-  setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number, fullOmegaDt: number): void;
+  setUpdateCoefficients(cex: number, cey: number, chx: number, chy: number, sourceScale: number, sourceNode: number): void;
   pointerTo(which: number): number;
+  /** Address of the table of the full-grid DFTs, 16 bytes each: ω·dt (f64), decimation m and offset r (i32). */
+  fullGridTable(): number;
+  /** Address of the real (imaginary = 0) or imaginary (1) part of full-grid DFT k. */
+  fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
   step(count: number): void;
   maxAbsEz(): number;
@@ -26,9 +30,11 @@ export interface MediaExports {
   ): number;
   setCoefficients(
     caA: number, cbxA: number, cbyA: number, cqA: number, caB: number, cbB: number, cqB: number,
-    caC: number, cbC: number, cqC: number, backgroundPoles: number, sourceScale: number, sourceNode: number, fullOmegaDt: number,
+    caC: number, cbC: number, cqC: number, backgroundPoles: number, sourceScale: number, sourceNode: number,
   ): void;
   pointerTo(which: number): number;
+  fullGridTable(): number;
+  fullGridAt(k: number, imaginary: number): number;
   stepsDone(): number;
   step(count: number): void;
   maxAbsA(): number;

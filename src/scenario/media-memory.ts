@@ -1,4 +1,4 @@
-import { stripVectorsPerRow, type MemoryInput } from './memory.ts';
+import { fullGridDftCount, stripVectorsPerRow, type MemoryInput } from './memory.ts';
 
 /**
  * What the media engine's memory depends on beyond the lossless engine's: the polarization,
@@ -33,7 +33,7 @@ export interface MediaMemoryInput extends MemoryInput {
  * the source point's Debye states (int32); per component its PEC runs (two int32 each) and
  * their row starts; the mask row number of each row (int32), the mask rows (2·nx int32
  * each) and the column span of each (two int32); then source table, probe series, running
- * DFTs and the optional full-grid DFT as in the lossless engine. The engine's own figure
+ * DFTs and the full-grid DFTs as in the lossless engine. The engine's own figure
  * can exceed this by at most 63 bytes (alignment of the first block).
  *
  * @example
@@ -69,7 +69,7 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
-    ...(m.fullGridDft ? [cells * 4, cells * 4] : []),
+    ...Array<number>(2 * fullGridDftCount(m.fullGridDft)).fill(cells * 4),
   ];
   // The last block is counted to its end, not to the end of its line.
   const last = blocks.pop() as number;

@@ -7,12 +7,20 @@
  * (x strips: ny rows of whole vectors covering the layer's columns on each side; y strips:
  * 2·cells rows of nx, rounded to vectors); the source table (float64 per step); the probe time series
  * (float32 per probe per sample); the running DFTs (index, float64 scratch value and two
- * float64 per frequency per point); and optionally a full-grid DFT (two float32 per node).
+ * float64 per frequency per point); and the full-grid DFTs, none, one or several (two
+ * float32 per node each).
  * The engine's own figure can exceed this by at most 63 bytes (alignment of the first block).
  */
 export interface MemoryInput {
   nx: number; ny: number; cells: number; steps: number;
-  probes: number; dftPoints: number; frequencies: number; fullGridDft: boolean;
+  probes: number; dftPoints: number; frequencies: number;
+  /** Full-grid running DFTs (error maps): how many, or true for one. */
+  fullGridDft: boolean | number;
+}
+
+/** The number of full-grid DFTs a `fullGridDft` entry stands for. */
+export function fullGridDftCount(fullGridDft: boolean | number): number {
+  return typeof fullGridDft === 'number' ? Math.max(0, Math.floor(fullGridDft)) : fullGridDft ? 1 : 0;
 }
 
 /** Cap on the estimate, bytes: 2 GiB, which both Node and Chromium can give one wasm instance. */
@@ -41,7 +49,7 @@ export function engineMemoryBytes(m: MemoryInput): number {
     m.steps * 8,
     m.probes * 4, m.probes * (m.steps + 1) * 4,
     m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
-    ...(m.fullGridDft ? [cells * 4, cells * 4] : []),
+    ...Array<number>(2 * fullGridDftCount(m.fullGridDft)).fill(cells * 4),
   ];
   // The last block is counted to its end, not to the end of its line.
   const last = blocks.pop() as number;

@@ -88,6 +88,33 @@ describe('run controls', () => {
   });
 });
 
+describe('field frames', () => {
+  it('come only while the field view is on screen, the last field always, and the controls still answer', async () => {
+    const { page, errors } = await openPage();
+    await page.locator('#f-steps').fill('6000');
+    const frames = () => page.evaluate(() => (document.querySelector('gg-app') as unknown as { store: { frameCosts: { count: number } } }).store.frameCosts.count);
+    // the Results section on show: the field view is out of sight
+    await page.getByRole('tab', { name: 'Results' }).click();
+    await page.waitForTimeout(300);
+    let before = await frames();
+    await command(page, 'run').click();
+    expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
+    expect((await frames()) - before).toBe(1); // the last field only, common practice, no source
+    // back on the set-up: replay frames and frames at the display's rate
+    await page.getByRole('tab', { name: 'Set-up' }).click();
+    await page.waitForTimeout(300);
+    before = await frames();
+    await command(page, 'run').click();
+    await expect.poll(async () => (await frames()) - before, { timeout: 30_000 }).toBeGreaterThan(3); // common practice, no source
+    await command(page, 'pause').click();
+    expect(await phase(page)).toBe('paused'); // common practice, no source
+    await command(page, 'resume').click();
+    expect(await waitForRunEnd(page)).toBe('done'); // common practice, no source
+    expect((await frames()) - before).toBeGreaterThan(10); // about 40 replay frames a run, common practice, no source
+    expect(errors).toEqual([]); // common practice, no source
+  });
+});
+
 describe('blow-up in the page', () => {
   it('stops a run that blows up, names the step and cause, and keeps the results so far', async () => {
     const { page, errors } = await openPage();

@@ -77,7 +77,7 @@ describe('sections of the page', () => {
     await expect.poll(() => other.locator('gg-studies-panel').isVisible()).toBe(true); // common practice, no source
     expect(await draft(other)).toEqual(edited); // common practice, no source
     await tab(page, 'Report').click();
-    expect(await page.locator('#view-report').textContent()).toContain('One self-contained HTML file for a design review'); // common practice, no source
+    await expect.poll(() => page.locator('#view-report').getByText('One self-contained HTML file for a design review').isVisible()).toBe(true); // common practice, no source
     await tab(page, 'Results').click();
     await expect.poll(() => page.locator('gg-error-map').isVisible()).toBe(true); // common practice, no source
     expect(page.url()).toContain('view=results'); // common practice, no source
@@ -137,12 +137,13 @@ describe('set-up', () => {
     expect(await page.locator('#f-source-waveform-f0').inputValue()).toBe('400000000'); // common practice, no source
   });
 
-  it('splits the memory readout into the run (as check reports it) and the error map', async () => {
+  it('splits the memory readout into the run (as check reports it) and the error maps, one per analysis frequency', async () => {
     const { page } = await openPage();
     const d = deriveQuantities(demoScenario());
-    const map = 8 * demoScenario().grid.nx * demoScenario().grid.ny; // a full-grid DFT: two float32 a node (IEEE 754 binary32)
+    const maps = demoScenario().frequencies.length;
+    const map = maps * 8 * demoScenario().grid.nx * demoScenario().grid.ny; // a full-grid DFT: two float32 a node (IEEE 754 binary32)
     const readout = page.locator('gg-setup .readouts');
-    await expect.poll(() => readout.textContent()).toContain(`${formatBytes(d.memory_bytes)} for the run + ${formatBytes(map)} for the error map`); // common practice, no source
+    await expect.poll(() => readout.textContent()).toContain(`${formatBytes(d.memory_bytes)} for the run + ${formatBytes(map)} for ${maps} error maps`); // common practice, no source
     const text = (await readout.textContent()) ?? '';
     expect(text).toContain(formatBytes(d.memory_bytes + map)); // common practice, no source
     expect(text).not.toMatch(/e\+\d/); // never "1.02e+3 KiB", common practice, no source
@@ -247,31 +248,32 @@ describe('maps and charts after the demo run', () => {
     const menu = page.getByLabel('Frequency of the error map');
     const legend = page.locator('gg-error-map .legend');
     const chosenLabel = () => menu.evaluate((s: HTMLSelectElement) => s.selectedOptions[0]?.textContent ?? '');
+    const phase = () => page.evaluate(() => (document.querySelector('gg-app') as HTMLElement).dataset.phase);
     expect(await chosenLabel()).toBe('5 GHz'); // the demo's first frequency is mapped
     expect(await legend.textContent()).toContain('at 5 GHz'); // common practice, no source
-    await menu.selectOption({ value: '10000000000' });
-    await expect.poll(chosenLabel).toBe('10 GHz (next run)'); // common practice, no source
-    expect(await legend.textContent()).not.toContain('5 GHz'); // the picture no longer claims another frequency
+    // one run maps every analysis frequency that fits: the menu switches without a rerun
+    for (const [value, label] of [['10000000000', '10 GHz'], ['15000000000', '15 GHz']]) {
+      await menu.selectOption({ value });
+      await expect.poll(chosenLabel).toBe(label); // common practice, no source
+      expect(await legend.textContent()).toContain(`at ${label}`); // common practice, no source
+      expect(await page.locator('gg-error-map [data-note="next-run"]').count()).toBe(0); // common practice, no source
+      await expect.poll(() => inked(page, 'gg-error-map canvas.map')).toBeGreaterThan(10_000); // common practice, no source
+      expect(await phase()).toBe('done'); // no run was started
+    }
+    // a frequency added after the run has no map until the next run, and says so
+    const s = { ...demoScenario(), frequencies: [...demoScenario().frequencies, 2e10] };
+    await page.evaluate((sc) => (document.querySelector('gg-app') as unknown as { controller: { applyScenario(s: unknown, n: string): void } }).controller.applyScenario(sc, 'one more frequency'), s);
+    await menu.selectOption({ value: '20000000000' });
+    await expect.poll(chosenLabel).toBe('20 GHz (next run)'); // common practice, no source
+    expect(await legend.textContent()).not.toContain('15 GHz'); // the picture no longer claims another frequency
     expect(await page.locator('gg-error-map [data-note="next-run"]').textContent()).toContain('applies to the next run'); // common practice, no source
     expect(await page.locator('gg-error-map canvas.map').getAttribute('aria-label')).toContain('empty'); // common practice, no source
     await page.locator('gg-run-controls button[data-command="run"]').click();
     await waitForRunEnd(page);
     await waitForCompareDrawn(page);
-    await expect.poll(chosenLabel).toBe('10 GHz'); // common practice, no source
-    expect(await legend.textContent()).toContain('at 10 GHz'); // common practice, no source
-    // with one map per frequency (as the multi-frequency engine sends them) the menu switches without a run
-    await page.evaluate(() => {
-      const app = document.querySelector('gg-app') as unknown as AppHandle;
-      const [m] = app.store.state.errorMaps as { f_Hz: number; db: Float32Array }[];
-      const other = { ...m, f_Hz: 1.5e10, db: m.db.map((v) => v - 10) };
-      app.store.set({ errorMaps: [m, other] });
-    });
-    await menu.selectOption({ value: '15000000000' });
-    await expect.poll(chosenLabel).toBe('15 GHz'); // common practice, no source
-    expect(await legend.textContent()).toContain('at 15 GHz'); // common practice, no source
-    expect(await page.locator('gg-error-map [data-note="next-run"]').count()).toBe(0); // common practice, no source
-    await expect.poll(() => inked(page, 'gg-error-map canvas.map')).toBeGreaterThan(10_000); // common practice, no source
-    expect(await page.evaluate(() => (document.querySelector('gg-app') as HTMLElement).dataset.phase)).toBe('done'); // no run was started
+    await expect.poll(chosenLabel).toBe('20 GHz'); // common practice, no source
+    expect(await legend.textContent()).toContain('at 20 GHz'); // common practice, no source
+    expect(await page.evaluate(() => (document.querySelector('gg-app') as unknown as AppHandle).store.state.errorMaps.map((m: { f_Hz: number }) => m.f_Hz))).toEqual([2e10, 5e9, 1e10, 1.5e10]); // the chosen one first, then the others in order
     expect(errors).toEqual([]); // common practice, no source
   });
 });

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { mediaMemoryBytes, type MediaMemoryInput } from '../../src/scenario/media-memory.ts';
+import { fullGridDftCount } from '../../src/scenario/memory.ts';
 import { MediaSimulation, PATCH_KIND } from '../../src/engine/media-simulation.ts';
 import { instantiateMedia, loadMediaModule } from '../../src/engine/wasm.ts';
 import { mediaScenario, patchedMap, TEST_MEDIA } from '../fixtures/media.ts';
@@ -18,11 +19,12 @@ describe('media engine memory estimate', () => {
     { ...base, nx: 64, ny: 64, cells: 0, steps: 10, polarization: 'TEz', stateSlots: 0, poleRecords: 0, fullGridDft: false, probes: 0, dftPoints: 0, frequencies: 0 },
     { ...base, nx: 25, ny: 2000, cells: 11, steps: 50_000, polarization: 'TMz', stateSlots: 2, poleRecords: 3, patches: [1, 0, 5], poolSlots: 2, sourceCorrections: 2 },
     { ...base, nx: 1024, ny: 1024, cells: 10, steps: 4000, polarization: 'TMz', stateSlots: 4, poleRecords: 4, patches: [5000, 2500, 2500], poolSlots: 12000, sourceCorrections: 2, pecRuns: [300, 7, 9], maskRows: 16 },
+    { ...base, nx: 257, ny: 211, cells: 7, steps: 900, polarization: 'TEz', stateSlots: 2, poleRecords: 2, fullGridDft: 4 },
   ];
   for (const m of cases) {
     it(`${m.nx} × ${m.ny} ${m.polarization}, ${m.stateSlots} state(s) a node, patches ${m.patches.join('/')}, PEC runs ${m.pecRuns.join('/')}: estimate within one cache line of the claim`, async () => {
       const e = instantiateMedia(await loadMediaModule());
-      const claimed = e.allocate(m.nx, m.ny, m.cells, m.steps, m.probes, m.dftPoints, m.frequencies, m.fullGridDft ? 1 : 0,
+      const claimed = e.allocate(m.nx, m.ny, m.cells, m.steps, m.probes, m.dftPoints, m.frequencies, fullGridDftCount(m.fullGridDft),
         m.polarization === 'TEz' ? 1 : 0, m.stateSlots, m.poleRecords, ...m.patches, m.poolSlots, m.sourceCorrections, ...m.pecRuns, m.maskRows);
       const estimate = mediaMemoryBytes(m);
       expect(claimed).toBeGreaterThan(0); // common practice, no source

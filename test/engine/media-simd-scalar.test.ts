@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { MaterialMap } from '../../src/engine/material-map.ts';
 import { MediaSimulation } from '../../src/engine/media-simulation.ts';
+import type { SimulationOptions } from '../../src/engine/simulation.ts';
 import { loadMediaModule } from '../../src/engine/wasm.ts';
 import type { Polarization, Scenario } from '../../src/scenario/types.ts';
 import { mediaScenario, patchedMap, pecMap, TEST_MEDIA } from '../fixtures/media.ts';
@@ -38,16 +39,18 @@ function fullScenario(nx: number, ny: number, cells: number, medium: string, pol
 
 interface Outcome { words: Map<string, Uint32Array>; nonzero: number }
 
-function runOn(module: WebAssembly.Module, s: Scenario, map?: MaterialMap): Outcome {
-  const sim = new MediaSimulation(module, s, { fullGridFrequency: 2e10 }, map);
+function runOn(module: WebAssembly.Module, s: Scenario, map?: MaterialMap, options: SimulationOptions = { fullGridFrequency: 2e10 }): Outcome {
+  const sim = new MediaSimulation(module, s, options, map);
   sim.run(undefined, 37); // uneven batches: a batch boundary must not matter either
   const words = new Map<string, Uint32Array>();
   const f32 = (name: string, a: Float32Array) => words.set(name, new Uint32Array(a.slice().buffer));
   const f64 = (name: string, a: number[]) => words.set(name, new Uint32Array(new Float64Array(a).buffer));
   f32('a', sim.ezView()); f32('b', sim.hxView()); f32('c', sim.hyView());
-  const full = sim.fullGridDft();
-  if (!full) throw new Error('full-grid DFT missing');
-  f32('fullRe', full.re); f32('fullIm', full.im);
+  sim.fullGridFrequencies.forEach((_, k) => {
+    const full = sim.fullGridDft(k);
+    if (!full) throw new Error(`full-grid DFT ${k} missing`);
+    f32(`fullRe ${k}`, full.re); f32(`fullIm ${k}`, full.im);
+  });
   s.probes.forEach((_, p) => f32(`series ${p}`, sim.probeSeries(p)));
   s.frequencies.forEach((_, k) => {
     f64(`probe dft f${k}`, s.probes.flatMap((_, p) => sim.probeDft(p, k)));
@@ -112,6 +115,24 @@ describe('media engine: SIMD build against the scalar build', () => {
       });
     }
   }
+
+  it('several full-grid DFTs, decimated (chosen, and forced to 3 and 7 steps), agree bit for bit, with patches too', () => {
+    const options: SimulationOptions[] = [
+      { fullGridFrequencies: [1e10, 2e10, 3.5e10] },
+      { fullGridFrequencies: [2e10, 1e10], fullGridDecimation: 3 },
+      { fullGridFrequencies: [1.5e10], fullGridDecimation: 7 },
+    ];
+    for (const polarization of ['TMz', 'TEz'] as const) {
+      for (const [nx, ny, cells] of [[64, 48, 10], [61, 47, 7]] as const) {
+        const s = fullScenario(nx, ny, cells, 'several', polarization);
+        const map = patchedMap(polarization, TEST_MEDIA.several, nx, 20, 14);
+        for (const o of options) {
+          expect(differing(runOn(simd, s, undefined, o), runOn(scalar, s, undefined, o)), `${polarization} ${nx} × ${ny} ${JSON.stringify(o)}`).toEqual([]); // common practice, no source
+          expect(differing(runOn(simd, s, map, o), runOn(scalar, s, map, o)), `${polarization} ${nx} × ${ny} patched ${JSON.stringify(o)}`).toEqual([]); // common practice, no source
+        }
+      }
+    }
+  });
 
   it('the smallest grids (vectors reach past short rows) agree too, in both polarizations with poles', () => {
     for (const polarization of ['TMz', 'TEz'] as const) {

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { Simulation } from '../../src/engine/simulation.ts';
+import { Simulation, type SimulationOptions } from '../../src/engine/simulation.ts';
 import { loadEngineModule } from '../../src/engine/wasm.ts';
 import type { Scenario } from '../../src/scenario/types.ts';
 import { makeScenario } from '../fixtures/scenarios.ts';
@@ -36,16 +36,18 @@ function fullScenario(nx: number, ny: number, cells: number): Scenario {
 
 interface Outcome { words: Map<string, Uint32Array>; nonzero: number }
 
-async function runOn(module: WebAssembly.Module, s: Scenario): Promise<Outcome> {
-  const sim = new Simulation(module, s, { fullGridFrequency: 2e10 });
+async function runOn(module: WebAssembly.Module, s: Scenario, options: SimulationOptions = { fullGridFrequency: 2e10 }): Promise<Outcome> {
+  const sim = new Simulation(module, s, options);
   sim.run(undefined, 37); // uneven batches: a batch boundary must not matter either
   const words = new Map<string, Uint32Array>();
   const f32 = (name: string, a: Float32Array) => words.set(name, new Uint32Array(a.slice().buffer));
   const f64 = (name: string, a: number[]) => words.set(name, new Uint32Array(new Float64Array(a).buffer));
   f32('ez', sim.ezView()); f32('hx', sim.hxView()); f32('hy', sim.hyView());
-  const full = sim.fullGridDft();
-  if (!full) throw new Error('full-grid DFT missing');
-  f32('fullRe', full.re); f32('fullIm', full.im);
+  sim.fullGridFrequencies.forEach((_, k) => {
+    const full = sim.fullGridDft(k);
+    if (!full) throw new Error(`full-grid DFT ${k} missing`);
+    f32(`fullRe ${k}`, full.re); f32(`fullIm ${k}`, full.im);
+  });
   s.probes.forEach((_, p) => f32(`series ${p}`, sim.probeSeries(p)));
   s.frequencies.forEach((_, k) => {
     f64(`probe dft f${k}`, s.probes.flatMap((_, p) => sim.probeDft(p, k)));
@@ -86,6 +88,25 @@ describe('SIMD engine against the scalar build of the same kernel', () => {
       for (const [name, words] of a.words) {
         const other = b.words.get(name) as Uint32Array;
         expect(words.every((w, k) => w === other[k]), `${n} × ${n + 1}, CPML ${cells}: ${name}`).toBe(true);
+      }
+    }
+  });
+
+  it('several full-grid DFTs, decimated (chosen, and forced to 3 and 7 steps), agree bit for bit', async () => {
+    const options: SimulationOptions[] = [
+      { fullGridFrequencies: [1e10, 2e10, 3.5e10] },
+      { fullGridFrequencies: [2e10, 1e10], fullGridDecimation: 3 },
+      { fullGridFrequencies: [1.5e10], fullGridDecimation: 7 },
+    ];
+    for (const [nx, ny, cells] of [[64, 48, 10], [61, 47, 10], [41, 33, 0]] as const) {
+      for (const o of options) {
+        const a = await runOn(simd, fullScenario(nx, ny, cells), o);
+        const b = await runOn(scalar, fullScenario(nx, ny, cells), o);
+        expect(a.words.size).toBe(b.words.size); // common practice, no source
+        for (const [name, words] of a.words) {
+          const other = b.words.get(name) as Uint32Array;
+          expect(words.every((w, k) => w === other[k]), `${nx} × ${ny}, ${JSON.stringify(o)}: ${name}`).toBe(true); // common practice, no source
+        }
       }
     }
   });
