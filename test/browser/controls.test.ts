@@ -102,6 +102,7 @@ describe('field frames', () => {
     expect((await frames()) - before).toBe(1); // the last field only, common practice, no source
     // back on the set-up: replay frames and frames at the display's rate
     await page.getByRole('tab', { name: 'Set-up' }).click();
+    await page.locator('#f-steps').fill('30000'); // long enough to catch it running
     await page.waitForTimeout(300);
     before = await frames();
     await command(page, 'run').click();
