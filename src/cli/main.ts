@@ -17,7 +17,7 @@ import type { AnyStudyDefinition } from '../studies/definition.ts';
 import { STUDIES } from '../studies/registry.ts';
 
 const HELP = () => `gridgauge — check FDTD cell size, time step and CPML absorbers against the exact
-field of a pulsed line current (2D TMz Yee grid, WebAssembly engine).
+field of a pulsed line current (2D Yee grid, TMz or TEz, WebAssembly engine).
 
 Usage:
   gridgauge run FILE [--out DIR] [--json]
