@@ -90,6 +90,24 @@ export class IntervalController implements ReactiveController {
   }
 }
 
+/** A one-shot timer: a pending call is replaced by a newer one and dropped when the host leaves. */
+export class TimeoutController implements ReactiveController {
+  private timer: ReturnType<typeof setTimeout> | undefined;
+  constructor(host: Host) {
+    host.addController(this);
+  }
+  once(ms: number, run: () => void): void {
+    this.cancel();
+    this.timer = setTimeout(() => { this.timer = undefined; run(); }, ms);
+  }
+  cancel(): void {
+    if (this.timer !== undefined) clearTimeout(this.timer);
+    this.timer = undefined;
+  }
+  hostConnected(): void {}
+  hostDisconnected(): void { this.cancel(); }
+}
+
 /**
  * Calls `draw` once in the next animation frame however often `request` is called before
  * it, and never after the host has left the page.

@@ -3,7 +3,7 @@ import { customElement, property, query, state } from 'lit/decorators.js';
 import { formatSI } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { cssColour, divergingIndex, divergingLut, LUT_SIZE } from './colormap.ts';
-import { AnimationFrameController, ResizeController } from './controllers.ts';
+import { AnimationFrameController, ResizeController, TimeoutController } from './controllers.ts';
 import { canvasesToPng, fileSafe, saveBlob } from './download.ts';
 import type { Edit } from './draft.ts';
 import { FilmPlayer, type FrameSource } from './film-player.ts';
@@ -22,6 +22,10 @@ export type { FrameSource } from './film-player.ts';
 
 /** Dynamic range of the dB scale. */
 const DB_RANGE = 80;
+/** Share of the main thread that live pictures may take while a run steps (the rest is the engine's). */
+const LIVE_PAINT_SHARE = 0.05;
+/** Longest wait between two live pictures, ms. */
+const LIVE_PAINT_MAX_GAP_MS = 200;
 
 /** What the pointer does on the map: edit the markers, or draw and edit objects of a shape. */
 type Tool = 'markers' | ObjectShape;
@@ -96,6 +100,9 @@ export class GgFieldView extends LitElement {
   labels: { text: string; box: Box }[] = [];
   /** Pictures painted and the main-thread milliseconds they took (read by the page benchmark). */
   readonly paintStats = { count: 0, ms: 0 };
+  /** The frame last painted and when (performance.now(), ms). */
+  private lastPainted: { frame?: ShownFrame; at: number } = { at: -Infinity };
+  private readonly liveTimer = new TimeoutController(this);
 
   constructor() {
     super();
@@ -206,7 +213,20 @@ export class GgFieldView extends LitElement {
 
   private draw(): void {
     const t0 = performance.now();
+    const frame = this.player.frame;
+    // While a run steps, a new live frame waits until the pictures so far have cost at most
+    // LIVE_PAINT_SHARE of the main thread: on a big grid painting shares the cores with the
+    // engine's worker. Edits and replay paint at once.
+    if (this.running && frame !== this.lastPainted.frame && this.paintStats.count > 0) {
+      const gap = Math.min(LIVE_PAINT_MAX_GAP_MS, this.paintStats.ms / this.paintStats.count / LIVE_PAINT_SHARE);
+      const wait = this.lastPainted.at + gap - t0;
+      if (wait > 1) {
+        this.liveTimer.once(wait, () => this.painter.request());
+        return;
+      }
+    }
     this.paint();
+    this.lastPainted = { frame, at: t0 };
     this.paintStats.count++;
     this.paintStats.ms += performance.now() - t0;
     this.player.painted(this.usableFrame());
