@@ -1,5 +1,4 @@
 import { collectResults, type RunResults } from '../compare/results.ts';
-import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
 import { makeSimulation } from '../engine/create-simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runExtras, runFiles } from '../io/outputs.ts';
@@ -10,7 +9,7 @@ import { scenarioWarnings, type Warning } from '../scenario/warnings.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { out, writeFiles } from './output.ts';
-import { ProgressBar } from './progress.ts';
+import { runWithProgress } from './run-loop.ts';
 import { commandReport } from './report-command.ts';
 import { cliOptions, COMMON_STUDY_OPTIONS, studyCommand } from './study-commands.ts';
 import type { AnyStudyDefinition } from '../studies/definition.ts';
@@ -95,24 +94,8 @@ async function commandRun(args: ParsedArgs): Promise<number> {
   const outDir = args.options.get('out') as string | undefined;
   const t0 = performance.now();
   const sim = await makeSimulation(scenario);
-  let interrupted = false;
-  const onSignal = () => { interrupted = true; };
-  process.on('SIGINT', onSignal);
-  const bar = new ProgressBar('run');
-  let outcome: DriveOutcome;
-  try {
-    outcome = await drive(sim, {
-      cellsPerBatch: 4e7, watch: true, shouldStop: () => interrupted,
-      afterBatch: async (s) => {
-        bar.update(s.stepsDone, s.stepsTotal, 'steps');
-        await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
-      },
-    });
-  } finally {
-    process.off('SIGINT', onSignal);
-  }
+  const { outcome, interrupted } = await runWithProgress(sim, 'writing what was computed');
   const blowUp = outcome.blowUp;
-  bar.done(interrupted ? `interrupted at step ${sim.stepsDone} of ${scenario.steps}; writing what was computed` : '');
   if (blowUp) process.stderr.write(`gridgauge: run stopped: ${blowUp.reason}; what was recorded up to step ${blowUp.step} is kept\n`);
   const runSeconds = secondsSince(t0);
   const results = collectResults(sim);

@@ -10,7 +10,6 @@ import { readdir, readFile, stat, mkdir, writeFile } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { errorMapOf } from '../compare/error-map.ts';
 import { collectResults } from '../compare/results.ts';
-import { drive, type DriveOutcome } from '../engine/batch-driver.ts';
 import { makeSimulation } from '../engine/create-simulation.ts';
 import { buildReport, type ReportStudy } from '../io/report.ts';
 import { isStudyJson, studyKind } from '../io/report/study-data.ts';
@@ -23,7 +22,7 @@ import packageJson from '../../package.json' with { type: 'json' };
 import { listOption, type ParsedArgs } from './args.ts';
 import { InvalidInput, loadScenarioFile } from './load.ts';
 import { note, out } from './output.ts';
-import { ProgressBar } from './progress.ts';
+import { runWithProgress } from './run-loop.ts';
 
 /** The report's file when --out is not given. */
 export const DEFAULT_REPORT_FILE = 'report.html';
@@ -114,24 +113,8 @@ export async function commandReport(args: ParsedArgs): Promise<number> {
 
   const t0 = performance.now();
   const sim = await makeSimulation(scenario, map.frequency !== undefined ? { fullGridFrequency: map.frequency } : {});
-  let interrupted = false;
-  const onSignal = () => { interrupted = true; };
-  process.on('SIGINT', onSignal);
-  const bar = new ProgressBar('run');
-  let outcome: DriveOutcome;
-  try {
-    outcome = await drive(sim, {
-      cellsPerBatch: 4e7, watch: true, shouldStop: () => interrupted,
-      afterBatch: async (s) => {
-        bar.update(s.stepsDone, s.stepsTotal, 'steps');
-        await new Promise((resolve) => setImmediate(resolve)); // lets Ctrl-C through
-      },
-    });
-  } finally {
-    process.off('SIGINT', onSignal);
-  }
+  const { outcome, interrupted } = await runWithProgress(sim, 'reporting what was computed');
   const blowUp = outcome.blowUp;
-  bar.done(interrupted ? `interrupted at step ${sim.stepsDone} of ${scenario.steps}; reporting what was computed` : '');
   if (blowUp) note(`gridgauge: run stopped: ${blowUp.reason}; the report covers the steps up to ${blowUp.step}`);
   const runSeconds = (performance.now() - t0) / 1000;
 
