@@ -82,10 +82,12 @@ function printProbeTable(r: RunResults, ratio: string, out: (line: string) => vo
       const s = p.spectra[k];
       out(`  ${formatSI(s.f_Hz, 'Hz').padEnd(12)}${formatSig(p.rho_wavelengths[k], 3).padStart(7)}` +
         `${`${formatSig(s.mag_err_dB, 3)} dB`.padStart(15)}${`${formatSig(s.phase_err_deg, 3)}°`.padStart(14)}` +
-        `${`${formatSig(s.predicted_phase_err_deg, 3)}°`.padStart(12)}`);
+        `${(Number.isFinite(s.predicted_phase_err_deg) ? `${formatSig(s.predicted_phase_err_deg, 3)}°` : s.note || '—').padStart(12)}`);
     }
   }
   out('phase: arg(FDTD/exact) with e^{+jωt}; negative = the grid lags the exact wave.');
+  const unpredicted = r.probes.some((p) => p.reached && p.spectra.some((s) => !Number.isFinite(s.predicted_phase_err_deg) && !s.note));
+  if (unpredicted) out('predicted —: no plane-wave prediction there (objects in the grid scatter the wave, or the frequency is past what the grid carries).');
 }
 
 async function commandRun(args: ParsedArgs): Promise<number> {

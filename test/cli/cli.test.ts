@@ -40,6 +40,17 @@ describe('gridgauge run', () => {
     expect(summary.probes[0].relErrMax).toBeLessThan(0.05);
   }, 60_000);
 
+  it('with an object in the grid, the predicted column says there is no prediction, and why', () => {
+    const r = gridgauge('run', 'examples/metal-post.json');
+    expect(r.code).toBe(0); // common practice, no source
+    const rows = r.stdout.split('\n').filter((l) => /^\s+10 GHz/.test(l));
+    expect(rows.length).toBeGreaterThan(0); // common practice, no source
+    for (const row of rows) expect(row.trimEnd().endsWith('—')).toBe(true); // no degree sign on a missing value, common practice, no source
+    expect(r.stdout).toContain('predicted —: no plane-wave prediction there'); // common practice, no source
+    const demo = gridgauge('run', 'examples/demo.json');
+    expect(demo.stdout).not.toContain('predicted —'); // common practice, no source
+  });
+
   it('--json prints summary.json on stdout and nothing else', () => {
     // contract: docs/outputs.md "Files of a run" and README "Command line" (no outside source applies)
     const r = gridgauge('run', 'examples/demo.json', '--json');
