@@ -1,7 +1,7 @@
 import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { RunResults } from '../compare/results.ts';
-import { formatSI, formatSig } from '../scenario/units.ts';
+import { figureOrNote, formatSI, formatSig } from '../scenario/units.ts';
 import type { ExactKind } from '../compare/reference.ts';
 import { fieldNames, type FieldNames } from '../scenario/field-names.ts';
 import { noExactNote, noExactStyles } from './no-exact-note.ts';
@@ -66,16 +66,16 @@ export class GgSummaryTable extends LitElement {
                   ${s ? html`
                     <td class="num">${formatSI(s.f_Hz, 'Hz')}</td>
                     <td class="num">${formatSig(p.rho_wavelengths[k], 3)}</td>
-                    <td class="num">${formatSig(s.mag_err_dB, 3)} dB</td>
-                    <td class="num">${formatSig(s.phase_err_deg, 3)}°</td>
-                    <td class="num">${formatSig(s.predicted_phase_err_deg, 3)}°</td>`
+                    <td class="num">${figureOrNote(s.mag_err_dB, ' dB', s.note)}</td>
+                    <td class="num">${figureOrNote(s.phase_err_deg, '°', s.note)}</td>
+                    <td class="num predicted">${figureOrNote(s.predicted_phase_err_deg, '°', s.note)}</td>`
                   : html`<td class="muted" colspan="5">no analysis frequencies</td>`}
                 </tr>`;
             });
           })}
         </tbody>
       </table></div>
-      <p class="caption" id="summary-caption">${this.names.field} compared. Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run.</p>
+      <p class="caption" id="summary-caption">${this.names.field} compared. Phase is arg(FDTD/exact) with e<sup>+jωt</sup>; negative means the grid lags. relErrMax = max |FDTD − exact| / max |exact| over the run. Predicted: the phase error the dispersion relation gives along the line from the source; — where it has none (objects in the grid, a frequency past what the grid carries).</p>
     `;
   }
 

@@ -3,7 +3,7 @@ import { makeSimulation } from '../engine/create-simulation.ts';
 import { jsonForOutput } from '../io/csv.ts';
 import { runExtras, runFiles } from '../io/outputs.ts';
 import { fieldNames } from '../scenario/field-names.ts';
-import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
+import { figureOrNote, formatBytes, formatSI, formatSig } from '../scenario/units.ts';
 import { deriveQuantities } from '../scenario/derived.ts';
 import { scenarioWarnings, type Warning } from '../scenario/warnings.ts';
 import { parseArgs, UsageError, type ParsedArgs } from './args.ts';
@@ -82,7 +82,7 @@ function printProbeTable(r: RunResults, ratio: string, out: (line: string) => vo
       const s = p.spectra[k];
       out(`  ${formatSI(s.f_Hz, 'Hz').padEnd(12)}${formatSig(p.rho_wavelengths[k], 3).padStart(7)}` +
         `${`${formatSig(s.mag_err_dB, 3)} dB`.padStart(15)}${`${formatSig(s.phase_err_deg, 3)}°`.padStart(14)}` +
-        `${(Number.isFinite(s.predicted_phase_err_deg) ? `${formatSig(s.predicted_phase_err_deg, 3)}°` : s.note || '—').padStart(12)}`);
+        `${figureOrNote(s.predicted_phase_err_deg, '°', s.note).padStart(12)}`);
     }
   }
   out('phase: arg(FDTD/exact) with e^{+jωt}; negative = the grid lags the exact wave.');

@@ -19,6 +19,19 @@ export function formatSI(value: number, unit: string, digits = 3): string {
   return `${formatSig(value / scale, digits)} ${prefix}${unit}`.trim();
 }
 
+/**
+ * A figure with its unit, or when it has no value (NaN, ±∞) the reason given in `note`
+ * ("evanescent", "not reached") or a dash: never "—°" or "— dB".
+ *
+ * @example
+ * figureOrNote(-1.234, '°'); // "−1.23°"
+ * figureOrNote(NaN, '°', 'evanescent'); // "evanescent"
+ * figureOrNote(NaN, ' dB'); // "—"
+ */
+export function figureOrNote(value: number, unit: string, note = '', digits = 3): string {
+  return Number.isFinite(value) ? `${formatSig(value, digits)}${unit}` : note || '—';
+}
+
 /** A number with `digits` significant figures, no exponent for everyday magnitudes. */
 export function formatSig(value: number, digits = 3): string {
   if (Number.isNaN(value)) return '—';

@@ -135,6 +135,9 @@ describe('objects', () => {
     expect(await page.locator('gg-summary-table [data-note="no-exact"]').count()).toBe(0); // one circle has its exact field (the cylinder series)
     const rel = Number((await page.locator(`gg-summary-table tr[data-probe="near"] td.relerr`).textContent())?.trim());
     expect(rel).toBeGreaterThan(0); // common practice, no source
+    const predictedCells = await page.locator('gg-summary-table td.predicted').allTextContents();
+    expect(predictedCells.length).toBeGreaterThan(0); // common practice, no source
+    expect(predictedCells.every((t) => t.trim() === '—')).toBe(true); // no plane-wave prediction beside an object, and no "—°", common practice, no source
     expect(await page.locator('gg-timeseries-chart .plot').first().getAttribute('aria-label')).toMatch(/^Hz against time/); // common practice, no source
     await page.getByRole('tab', { name: 'Set-up' }).click();
     await expect.poll(() => page.locator('gg-field-view .scale-label').textContent()).toContain('A/m'); // Hz in A/m

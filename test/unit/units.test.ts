@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatSI, formatSig } from '../../src/scenario/units.ts';
+import { figureOrNote, formatBytes, formatSI, formatSig } from '../../src/scenario/units.ts';
 
 describe('SI formatting', () => {
   it('chooses the prefix that shows 1 to 999', () => {
@@ -18,6 +18,13 @@ describe('SI formatting', () => {
     expect(formatSI(Infinity, 'dB')).toBe('∞ dB');
     expect(formatSig(NaN)).toBe('—');
     expect(formatSig(-Infinity)).toBe('−∞');
+  });
+
+  it('gives a missing figure its reason or a dash, never a dash with a unit', () => {
+    expect(figureOrNote(-1.234, '°')).toBe('−1.23°'); // common practice, no source
+    expect(figureOrNote(0.05, ' dB', 'evanescent')).toBe('0.05 dB'); // a value wins over a note, common practice, no source
+    expect(figureOrNote(NaN, '°', 'evanescent')).toBe('evanescent'); // common practice, no source
+    expect(figureOrNote(NaN, ' dB')).toBe('—'); // common practice, no source
   });
 
   it('keeps significant figures and switches to exponents outside everyday magnitudes', () => {
