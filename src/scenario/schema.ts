@@ -77,17 +77,26 @@ const poleKind = z.enum(POLE_KINDS, {
 });
 
 const nonNegative = (h: FieldHint, why: string) => numberAtLeast(0, h, why);
-const deltaEps = nonNegative({ what: 'the pole\'s strength Δε (dimensionless), 0 or more', example: '10' }, '; a passive medium has no negative Δε');
+/** `field` with an upper bound `max` (in `unit`), refused with the reason and the fix. */
+const atMost = <T extends z.ZodType<number>>(field: T, max: number, unit: string, why: string) => {
+  const u = unit ? ` ${unit}` : '';
+  return field.refine((v) => !(v > max), { error: (iss) => `is ${plainNumber(iss.input)}${u}, above the largest accepted ${plainNumber(max)}${u} (${why}); use ${plainNumber(max)}${u} or less` });
+};
+/** A number as a person would type it: 1e18 rather than 1000000000000000000 or 1e+18. */
+const plainNumber = (x: unknown) => (typeof x === 'number' && Math.abs(x) >= 1e4 ? x.toExponential().replace('e+', 'e') : String(x));
+
+const deltaEps = atMost(nonNegative({ what: 'the pole\'s strength Δε (dimensionless), 0 or more', example: '10' }, '; a passive medium has no negative Δε'),
+  1e4, '', 'the grid\'s float32 coefficients stay finite below it');
 
 /** One dispersion pole; fields of the other kinds are refused in rules (by kind). */
 export const poleSchema = objectOf({
   kind: poleKind,
   deltaEps: deltaEps.optional(),
-  tau: positiveNumber({ what: 'the Debye relaxation time τ in seconds', example: '8e-12' }).optional(),
-  omegaP: positiveNumber({ what: 'the plasma frequency ωp in rad/s', example: '1.2e16' }).optional(),
-  gamma: nonNegative({ what: 'the collision rate γ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy').optional(),
-  omega0: positiveNumber({ what: 'the resonance frequency ω0 in rad/s', example: '4e15' }).optional(),
-  delta: nonNegative({ what: 'the damping δ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy').optional(),
+  tau: atMost(positiveNumber({ what: 'the Debye relaxation time τ in seconds', example: '8e-12' }), 1, 's', 'slower than any relaxation a run could see').optional(),
+  omegaP: atMost(positiveNumber({ what: 'the plasma frequency ωp in rad/s', example: '1.2e16' }), 1e18, 'rad/s', 'far above any frequency a grid resolves').optional(),
+  gamma: atMost(nonNegative({ what: 'the collision rate γ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy'), 1e18, '1/s', 'far above any rate a grid resolves').optional(),
+  omega0: atMost(positiveNumber({ what: 'the resonance frequency ω0 in rad/s', example: '4e15' }), 1e18, 'rad/s', 'far above any frequency a grid resolves').optional(),
+  delta: atMost(nonNegative({ what: 'the damping δ in 1/s, 0 or more', example: '1e14' }, '; a negative damping makes the medium gain energy'), 1e18, '1/s', 'far above any rate a grid resolves').optional(),
 }, 'a pole such as { "kind": "debye", "deltaEps": 10, "tau": 8e-12 }');
 
 export const mediumSchema = objectOf({

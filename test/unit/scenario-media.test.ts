@@ -31,6 +31,16 @@ describe('medium: conductivity and poles', () => {
     expect(at(refused((s) => { s.medium.poles = [{ kind: 'drude', omegaP: 0 }]; }), 'medium.poles[0].omegaP')).toMatch(/not above 0/);
     expect(at(refused((s) => { s.medium.poles = [{ kind: 'lorentz', deltaEps: 1, omega0: 0 }]; }), 'medium.poles[0].omega0')).toMatch(/not above 0/);
   });
+  it('values so large the float32 coefficients would overflow are refused with the largest accepted (found by fuzzing)', () => {
+    const big = (pole: Record<string, unknown>, field: string) => at(refused((s) => { s.medium.poles = [pole]; }), `medium.poles[0].${field}`);
+    expect(big({ kind: 'debye', deltaEps: 1.5e40, tau: 1e-11 }, 'deltaEps')).toBe('is 1.5e40, above the largest accepted 1e4 (the grid\'s float32 coefficients stay finite below it); use 1e4 or less'); // common practice, no source
+    expect(big({ kind: 'debye', deltaEps: 1, tau: 1e300 }, 'tau')).toMatch(/^is 1e300 s, above the largest accepted 1 s .*; use 1 s or less$/); // common practice, no source
+    expect(big({ kind: 'drude', omegaP: 1e20 }, 'omegaP')).toMatch(/above the largest accepted 1e18 rad\/s/); // common practice, no source
+    expect(big({ kind: 'drude', omegaP: 1e10, gamma: 1e19 }, 'gamma')).toMatch(/use 1e18 1\/s or less/); // common practice, no source
+    expect(big({ kind: 'lorentz', deltaEps: 1, omega0: 1e19 }, 'omega0')).toMatch(/use 1e18 rad\/s or less/); // common practice, no source
+    expect(big({ kind: 'lorentz', deltaEps: 1, omega0: 1e10, delta: 1e19 }, 'delta')).toMatch(/use 1e18 1\/s or less/); // common practice, no source
+    expect(refused((s) => { s.medium.poles = [{ kind: 'debye', deltaEps: 1e4, tau: 1 }]; })).toEqual([]); // the bounds themselves are accepted, common practice, no source
+  });
   it('an unknown kind, a field of another kind, a missing field and more than six poles', () => {
     expect(at(refused((s) => { s.medium.poles = [{ kind: 'debey', deltaEps: 1, tau: 1e-12 }]; }), 'medium.poles[0].kind')).toMatch(/did you mean debye/);
     expect(at(refused((s) => { s.medium.poles = [{ kind: 'drude', omegaP: 1e10, tau: 1 }]; }), 'medium.poles[0].tau')).toMatch(/does not apply to a drude pole/);
