@@ -16,7 +16,10 @@ const NUMBER = String.raw`[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?`;
 export function scaledNumeral(numeral: string, exponent: number): string {
   const [mantissa, power] = numeral.toLowerCase().split('e');
   const v = Number(`${mantissa}e${Number(power ?? 0) - exponent}`);
-  return Number.isFinite(v) ? String(Number(v.toPrecision(12))) : numeral;
+  if (!Number.isFinite(v)) return numeral;
+  const tidy = Number(v.toPrecision(12));
+  // a million and above as a person types it: 2e12 rather than 2000000000000
+  return Math.abs(tidy) >= 1e6 ? tidy.toExponential().replace('e+', 'e') : String(tidy);
 }
 
 /**

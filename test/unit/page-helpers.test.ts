@@ -28,6 +28,8 @@ describe('messages in the field\'s unit', () => {
     expect(scaledNumeral('5e-10', -12)).toBe('500'); // 500 ps, BIPM SI Brochure Table 7
     expect(scaledNumeral('0.15', -6)).toBe('150000'); // common practice, no source
     expect(scaledNumeral('-0.0035', -3)).toBe('-3.5'); // common practice, no source
+    expect(scaledNumeral('1', -12)).toBe('1e12'); // 1 s in ps, written as typed (common practice, no source)
+    expect(scaledNumeral('2.5', -9)).toBe('2.5e9'); // common practice, no source
   });
 
   it('rewrites a cell-size message from metres into mm', () => {
