@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { mutated, type Mutation } from '../fixtures/mutate.ts';
 import { createSimulation, loadEngineModules } from '../../src/engine/create-simulation.ts';
 import { parseScenarioText, validateScenario } from '../../src/scenario/parse.ts';
 import { scenarioWarnings } from '../../src/scenario/warnings.ts';
@@ -52,22 +53,10 @@ const oddValue = fc.oneof(
   fc.string({ maxLength: 8 }),
 );
 
-type Mutation = { path: readonly (string | number)[]; value: unknown; remove: boolean };
 const mutation: fc.Arbitrary<Mutation> = fc.record({ path: fc.constantFrom(...leafPaths), value: oddValue, remove: fc.boolean() });
 
 function mutate(m: Mutation[]): unknown {
-  const s = structuredClone(base) as Record<string, unknown>;
-  for (const { path, value, remove } of m) {
-    let o = s as Record<string | number, unknown>;
-    for (const k of path.slice(0, -1)) {
-      const next = o[k];
-      if (typeof next !== 'object' || next === null) { o = {}; break; }
-      o = next as Record<string | number, unknown>;
-    }
-    const last = path[path.length - 1];
-    if (remove) delete o[last]; else o[last] = value;
-  }
-  return s;
+  return mutated(base, m);
 }
 
 describe('untrusted media, polarization and object input', () => {

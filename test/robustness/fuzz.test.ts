@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { mutated, type Mutation } from '../fixtures/mutate.ts';
 import { loadEngineModule } from '../../src/engine/wasm.ts';
 import { Simulation } from '../../src/engine/simulation.ts';
 import { parseScenarioText, validateScenario } from '../../src/scenario/parse.ts';
@@ -41,7 +42,6 @@ const oddValue = fc.oneof(
   fc.string({ maxLength: 12 }),
 );
 
-type Mutation = { path: readonly (string | number)[]; value: unknown; remove: boolean };
 const mutation: fc.Arbitrary<Mutation> = fc.record({
   path: fc.constantFrom(...leafPaths),
   value: oddValue,
@@ -49,17 +49,7 @@ const mutation: fc.Arbitrary<Mutation> = fc.record({
 });
 
 function mutate(m: Mutation[], extraKey: string | undefined): unknown {
-  const s = structuredClone(base) as Record<string, unknown>;
-  for (const { path, value, remove } of m) {
-    let o = s as Record<string | number, unknown>;
-    for (const k of path.slice(0, -1)) {
-      const next = o[k];
-      if (typeof next !== 'object' || next === null) { o = {}; break; }
-      o = next as Record<string | number, unknown>;
-    }
-    const last = path[path.length - 1];
-    if (remove) delete o[last]; else o[last] = value;
-  }
+  const s = mutated(base, m);
   if (extraKey) s[extraKey] = 1;
   return s;
 }
