@@ -1,7 +1,6 @@
 import { C0, EPS0, MU0 } from '../scenario/constants.ts';
 import type { Waveform } from '../scenario/types.ts';
-import { waveformDerivative, waveformExtent } from '../scenario/waveforms.ts';
-import { gaussLegendre } from './gauss-legendre.ts';
+import { buildWakeRule, retardedIntegral, retardedPlan, type Plan as RetardedPlan } from './transient.ts';
 
 /*
  * The field. In a medium of permittivity ε = ε0·εr and conductivity σ (μ = μ0), Maxwell's
@@ -35,62 +34,18 @@ import { gaussLegendre } from './gauss-legendre.ts';
  * (e^{−a(s−r)} + e^{−a(s+r)})/(2r) with s − r = (ρ/c)²/(s + r); that form is used only where
  * the kernel changes by less than e^{10} across one retarded-time panel.
  */
-const POINTS = 24;
-const { nodes: NODES, weights: WEIGHTS } = gaussLegendre(POINTS);
-const PHASE_PER_PANEL = 45;
-const U_PER_PANEL = 4;
 const KERNEL_RISE = 10;
-const derivative = waveformDerivative;
 
-function highestAngularFrequency(w: Waveform): number {
-  switch (w.kind) {
-    case 'gaussian': return 10 / w.tau;
-    case 'modulated-gaussian': return 2 * Math.PI * w.f0 + 10 / w.tau;
-    case 'ricker': return 10 * Math.PI * w.f0;
-  }
-}
-
-/** acosh(1 + δ) without cancellation for small δ or overflow for huge δ. */
-function acoshOnePlus(delta: number): number {
-  if (!(delta > 0)) return 0;
-  if (delta > 1e8) return Math.LN2 + Math.log1p(delta);
-  return Math.log1p(delta + Math.sqrt(delta * (delta + 2)));
-}
-
-interface Plan {
-  w: Waveform;
-  /** ρ/c, s; the loss rate a = σ/(2ε), 1/s; A = a·ρ/c. */
-  delay: number; rate: number; loss: number;
-  tauLo: number; tauMax: number; timeStep: number; uStep: number;
-  wakeTimes: Float64Array | null; wakeWeights: Float64Array | null;
+/** The lossless plan (transient.ts) with the loss rate a = σ/(2ε), 1/s, and A = a·ρ/c. */
+interface Plan extends RetardedPlan {
+  rate: number;
+  loss: number;
 }
 
 function makePlan(w: Waveform, rho: number, epsR: number, sigma: number, refinement: number): Plan {
-  const extent = waveformExtent(w);
-  const span = 2 * extent;
-  const timeStep = span / Math.ceil((span * highestAngularFrequency(w) * refinement) / PHASE_PER_PANEL);
   const delay = (rho * Math.sqrt(epsR)) / C0;
   const rate = sigma / (2 * EPS0 * epsR);
-  return {
-    w, delay, rate, loss: rate * delay, tauLo: w.t0 - extent, tauMax: w.t0 + extent, timeStep,
-    uStep: U_PER_PANEL / refinement, wakeTimes: null, wakeWeights: null,
-  };
-}
-
-function buildWakeRule(plan: Plan): void {
-  const panels = Math.round((plan.tauMax - plan.tauLo) / plan.timeStep);
-  const times = new Float64Array(panels * POINTS);
-  const weights = new Float64Array(panels * POINTS);
-  const half = 0.5 * plan.timeStep;
-  for (let p = 0; p < panels; p++) {
-    const mid = plan.tauLo + (p + 0.5) * plan.timeStep;
-    for (let i = 0; i < POINTS; i++) {
-      times[p * POINTS + i] = mid + half * NODES[i];
-      weights[p * POINTS + i] = half * WEIGHTS[i] * derivative(plan.w, 1, mid + half * NODES[i]);
-    }
-  }
-  plan.wakeTimes = times;
-  plan.wakeWeights = weights;
+  return { ...retardedPlan(w, delay, refinement), rate, loss: rate * delay };
 }
 
 /**
@@ -99,7 +54,7 @@ function buildWakeRule(plan: Plan): void {
  * (where it is largest; each part falls with s) times the panel is below KERNEL_RISE.
  */
 function wakeApplies(plan: Plan, t: number): boolean {
-  const { delay, rate, timeStep } = plan;
+  const { a: delay, rate, timeStep } = plan;
   const s = t - plan.tauMax;
   if (s - delay < timeStep) return false;
   if (rate === 0) return true;
@@ -111,65 +66,17 @@ function wakeApplies(plan: Plan, t: number): boolean {
 
 /** ∫ I'(t − (ρ/c)cosh u)·weight(u) du for unit amplitude; exactly 0 before the front. */
 function fieldIntegral(plan: Plan, t: number): number {
-  if (!wakeApplies(plan, t)) return retardedIntegral(plan, t);
+  if (!wakeApplies(plan, t)) return retardedIntegral(plan, t, plan.loss);
   if (plan.wakeTimes === null) buildWakeRule(plan);
   const times = plan.wakeTimes as Float64Array;
   const weights = plan.wakeWeights as Float64Array;
-  const { delay, rate } = plan;
+  const { a: delay, rate } = plan;
   let sum = 0;
   for (let i = 0; i < times.length; i++) {
     const s = t - times[i];
     const r = Math.sqrt((s - delay) * (s + delay));
     const kernel = rate === 0 ? 1 : 0.5 * (Math.exp((-rate * delay * delay) / (s + r)) + Math.exp(-rate * (s + r)));
     sum += (weights[i] * kernel) / r;
-  }
-  return sum;
-}
-
-/** The u-integral over the part of the range whose retarded time lies in the pulse window. */
-function retardedIntegral(plan: Plan, t: number): number {
-  const { w, delay: a, loss, tauLo, tauMax, timeStep, uStep } = plan;
-  const front = t - a;
-  const gap = front > tauMax ? front - tauMax : 0;
-  const span = front - gap - tauLo;
-  if (!(span > 0)) return 0;
-  const ua = acoshOnePlus(gap / a);
-  const ub = acoshOnePlus((gap + span) / a);
-  const timePanels = Math.ceil(span / timeStep);
-  const dTau = span / timePanels;
-  const uPanels = Math.ceil((ub - ua) / uStep);
-  const du = (ub - ua) / uPanels;
-  let kU = 1;
-  // near the turning point u = 0 the retarded time is quadratic in u: a quarter panel first
-  const graded = gap < dTau;
-  let kT = graded ? 0 : 1;
-  let nextT = acoshOnePlus((gap + (graded ? 0.25 : 1) * dTau) / a);
-  let nextU = kU < uPanels ? ua + kU * du : ub;
-  let left = ua;
-  let sum = 0;
-  for (;;) {
-    const right = Math.min(nextT, nextU, ub);
-    if (right > left) {
-      const half = 0.5 * (right - left);
-      const mid = left + half;
-      let panel = 0;
-      for (let i = 0; i < POINTS; i++) {
-        const e = Math.exp(mid + half * NODES[i]);
-        const weight = loss === 0 ? 1 : 0.5 * (Math.exp(-loss / e) + Math.exp(-loss * e));
-        panel += WEIGHTS[i] * weight * derivative(w, 1, t - 0.5 * a * (e + 1 / e));
-      }
-      sum += panel * half;
-    }
-    if (right >= ub) break;
-    if (nextT <= right) {
-      kT++;
-      nextT = kT < timePanels ? acoshOnePlus((gap + kT * dTau) / a) : ub;
-    }
-    if (nextU <= right) {
-      kU++;
-      nextU = kU < uPanels ? ua + kU * du : ub;
-    }
-    left = right;
   }
   return sum;
 }

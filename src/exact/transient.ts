@@ -49,9 +49,10 @@ function acoshOnePlus(delta: number): number {
   return Math.log1p(delta + Math.sqrt(delta * (delta + 2)));
 }
 
-/** What one (waveform, ρ, εr, refinement) needs to evaluate the field at many times. */
-interface Plan {
+/** What one (waveform, ρ, εr, refinement) needs to evaluate the field at many times (telegraph.ts adds its loss). */
+export interface Plan {
   w: Waveform;
+  /** ρ/c, s. */
   a: number;
   tauLo: number;
   tauMax: number;
@@ -62,17 +63,23 @@ interface Plan {
   wakeWeights: Float64Array | null;
 }
 
-function makePlan(w: Waveform, rho: number, epsR: number, refinement: number): Plan {
+/** The plan for a pulse `w` seen after the delay `a` = ρ/c, s. */
+export function retardedPlan(w: Waveform, a: number, refinement: number): Plan {
   const extent = waveformExtent(w);
   const span = 2 * extent;
   const timeStep = span / Math.ceil((span * highestAngularFrequency(w) * refinement) / PHASE_PER_PANEL);
   return {
-    w, a: (rho * Math.sqrt(epsR)) / C0, tauLo: w.t0 - extent, tauMax: w.t0 + extent, timeStep,
+    w, a, tauLo: w.t0 - extent, tauMax: w.t0 + extent, timeStep,
     uStep: U_PER_PANEL / refinement, wakeTimes: null, wakeWeights: null,
   };
 }
 
-function buildWakeRule(plan: Plan): void {
+function makePlan(w: Waveform, rho: number, epsR: number, refinement: number): Plan {
+  return retardedPlan(w, (rho * Math.sqrt(epsR)) / C0, refinement);
+}
+
+/** Fills the plan's wake rule: Gauss–Legendre nodes over the pulse and weight·I'(τ) at each. */
+export function buildWakeRule(plan: Plan): void {
   const panels = Math.round((plan.tauMax - plan.tauLo) / plan.timeStep);
   const times = new Float64Array(panels * POINTS);
   const weights = new Float64Array(panels * POINTS);
@@ -105,11 +112,12 @@ function fieldIntegral(plan: Plan, t: number): number {
 }
 
 /**
- * ∫ I'(t − a·cosh u) du over the u where the retarded time lies in the pulse window, for
- * unit amplitude, by composite Gauss–Legendre in u. Exactly 0 when the range is empty
- * (before the wavefront).
+ * ∫ I'(t − a·cosh u)·w(u) du over the u where the retarded time lies in the pulse window, for
+ * unit amplitude, by composite Gauss–Legendre in u, with w = 1 (lossless) or, for a
+ * conducting medium with A = `loss` (telegraph.ts), w = ½(e^{−A·e^{−u}} + e^{−A·e^{u}}).
+ * Exactly 0 when the range is empty (before the wavefront).
  */
-function retardedIntegral(plan: Plan, t: number): number {
+export function retardedIntegral(plan: Plan, t: number, loss = 0): number {
   const { w, a, tauLo, tauMax, timeStep, uStep } = plan;
   // Retarded time t − a·cosh u = (t − a) − a·(cosh u − 1). `gap` is how far the latest
   // retarded time still inside the pulse lies behind the wavefront; it is exactly 0 while
@@ -141,7 +149,8 @@ function retardedIntegral(plan: Plan, t: number): number {
       let panel = 0;
       for (let i = 0; i < POINTS; i++) {
         const e = Math.exp(mid + half * NODES[i]);
-        panel += WEIGHTS[i] * derivative(w, 1, t - 0.5 * a * (e + 1 / e));
+        const d = derivative(w, 1, t - 0.5 * a * (e + 1 / e));
+        panel += loss === 0 ? WEIGHTS[i] * d : WEIGHTS[i] * (0.5 * (Math.exp(-loss / e) + Math.exp(-loss * e))) * d;
       }
       sum += panel * half;
     }
