@@ -1,6 +1,6 @@
 import { css, html, LitElement, nothing, type PropertyValues } from 'lit';
 import { customElement, property, query, state } from 'lit/decorators.js';
-import type { ErrorMap } from '../compare/error-map.ts';
+import { colourRangeDb, type ErrorMap } from '../compare/error-map.ts';
 import { exactKind } from '../compare/reference.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
 import type { Scenario } from '../scenario/types.ts';
@@ -26,11 +26,7 @@ function fittedRange(m: ErrorMap, cells: number): [number, number] {
       if (Number.isFinite(v)) values.push(v);
     }
   }
-  if (values.length < 2) return [-80, 0];
-  values.sort((a, b) => a - b);
-  const lo = Math.floor(values[Math.floor(0.02 * (values.length - 1))] / 5) * 5;
-  const hi = Math.ceil(values[Math.ceil(0.98 * (values.length - 1))] / 5) * 5;
-  return hi > lo ? [lo, hi] : [lo, lo + 5];
+  return colourRangeDb(values);
 }
 
 /**

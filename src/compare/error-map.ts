@@ -67,3 +67,19 @@ export function errorMapOf(sim: AnySimulation, k = 0): ErrorMap | undefined {
   }
   return { nx, ny, f_Hz: f, db };
 }
+
+/**
+ * The colour range of an error map from its finite values in dB: the 2nd and 98th
+ * percentiles widened to multiples of 5 dB (at least 5 dB wide; −80 to 0 dB with fewer than
+ * two values). Sorts `values` in place.
+ *
+ * @example
+ * colourRangeDb([-63, -41, -52, -38]); // [-65, -35]
+ */
+export function colourRangeDb(values: number[]): [number, number] {
+  if (values.length < 2) return [-80, 0];
+  values.sort((a, b) => a - b);
+  const lo = Math.floor(values[Math.floor(0.02 * (values.length - 1))] / 5) * 5;
+  const hi = Math.ceil(values[Math.ceil(0.98 * (values.length - 1))] / 5) * 5;
+  return hi > lo ? [lo, hi] : [lo, lo + 5];
+}

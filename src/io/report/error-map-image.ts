@@ -5,7 +5,7 @@
  * colour scale into a palette PNG (png.ts) embedded as a data: URI, with the absorber's
  * inner edge outlined and an SVG colour bar beside it.
  */
-import type { ErrorMap } from '../../compare/error-map.ts';
+import { colourRangeDb, type ErrorMap } from '../../compare/error-map.ts';
 import { formatSig } from '../../scenario/units.ts';
 import { linearTicks } from '../svg-plot.ts';
 import { base64, encodePalettePng } from './png.ts';
@@ -86,11 +86,7 @@ export function fittedRange(m: ShrunkMap, inset: number): [number, number] {
       if (Number.isFinite(v)) values.push(v);
     }
   }
-  if (values.length < 2) return [-80, 0];
-  values.sort((a, b) => a - b);
-  const lo = Math.floor(values[Math.floor(0.02 * (values.length - 1))] / 5) * 5;
-  const hi = Math.ceil(values[Math.ceil(0.98 * (values.length - 1))] / 5) * 5;
-  return hi > lo ? [lo, hi] : [lo, lo + 5];
+  return colourRangeDb(values);
 }
 
 /** The palette: the scale, then white for the outline and mid grey for "no value". */
