@@ -8,7 +8,7 @@ import {
   ABSORBER_SWEEP_DEFAULTS, absorberKey, absorberOptionProblems, applyAbsorber, compareAbsorbers, gradingKey, planAbsorberStudy, recommendAbsorber,
   type AbsorberBasis, type AbsorberCandidatePlan, type AbsorberGrading, type AbsorberStudyOptions, type AbsorberStudyPlan, type StudyProbe,
 } from './absorber-plan.ts';
-import { readListOption, readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { type StudyChart, type StudyDefinition, type StudyOutput, optionReaders } from './definition.ts';
 import type { ProbeSeriesResult } from './jobs.ts';
 import type { StudyPool } from './pool.ts';
 import { reflectionErrorDb, reflectionErrorSeries } from './reflection.ts';
@@ -253,16 +253,7 @@ export const absorberStudy: StudyDefinition<AbsorberStudyOptions, AbsorberCandid
   ],
   readOptions(values) {
     const problems: string[] = [];
-    const num = (name: string, unit: string, example: string) => {
-      const r = readNumberOption(name, values[name], unit, example);
-      if (r.problem) problems.push(r.problem);
-      return r.value;
-    };
-    const list = (name: string, unit: string, example: string) => {
-      const r = readListOption(name, values[name], unit, example);
-      if (r.problem) problems.push(r.problem);
-      return r.value;
-    };
+    const { num, list } = optionReaders(values, problems);
     const options: AbsorberStudyOptions = {
       target_dB: num('target', 'dB', '-60'),
       basis: values.basis === undefined || values.basis === '' ? undefined : values.basis as AbsorberBasis,

@@ -15,7 +15,7 @@ import { layoutOf, snapIndex } from '../scenario/layout.ts';
 import { MEMORY_CAP_BYTES } from '../scenario/memory.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
-import { readNumberOption, type StudyChart, type StudyDefinition } from './definition.ts';
+import { type StudyChart, type StudyDefinition, optionReaders } from './definition.ts';
 import { transferAt, type SpectraJob, type SpectraResult } from './jobs.ts';
 
 export interface ConvergenceOptions { levels?: number; ratio?: number; budget_dB?: number; budget_deg?: number }
@@ -298,11 +298,7 @@ export const convergenceStudy: StudyDefinition<ConvergenceOptions, LevelPlan, Co
   ],
   readOptions(values) {
     const problems: string[] = [];
-    const num = (name: string, unit: string, example: string) => {
-      const r = readNumberOption(name, values[name], unit, example);
-      if (r.problem) problems.push(r.problem);
-      return r.value;
-    };
+    const { num } = optionReaders(values, problems);
     const options: ConvergenceOptions = { levels: num('levels', 'grids', '3'), ratio: num('ratio', 'times finer', '2'), budget_dB: num('budget-db', 'dB', '0.1'), budget_deg: num('budget-deg', 'degrees', '1') };
     if (problems.length === 0) problems.push(...convergenceOptionProblems(options));
     return problems.length ? { problems } : { options, problems };

@@ -189,3 +189,23 @@ export function readListOption(name: string, text: string | undefined, unit: str
   if (parts.length > 0 && values.every(Number.isFinite)) return { value: values };
   return { problem: `${name}: "${text}" is not a list of ${unit}; write numbers separated by commas, e.g. ${example}` };
 }
+
+/**
+ * `num` and `list` readers of a study's option texts that gather every problem in
+ * `problems`, in the order the options are read.
+ *
+ * @example
+ * const problems: string[] = [];
+ * const { num } = optionReaders({ target: '-70dB' }, problems);
+ * num('target', 'dB', '-60'); // undefined; problems[0] says to write the number alone
+ */
+export function optionReaders(values: Readonly<Record<string, string | undefined>>, problems: string[]) {
+  const keep = <T>(r: { value?: T; problem?: string }): T | undefined => {
+    if (r.problem) problems.push(r.problem);
+    return r.value;
+  };
+  return {
+    num: (name: string, unit: string, example: string) => keep(readNumberOption(name, values[name], unit, example)),
+    list: (name: string, unit: string, example: string) => keep(readListOption(name, values[name], unit, example)),
+  };
+}

@@ -9,7 +9,7 @@ import { exactReference } from '../compare/reference.ts';
 import { layoutOf, nodeDistance } from '../scenario/layout.ts';
 import type { Scenario } from '../scenario/types.ts';
 import { formatBytes, formatSI, formatSig } from '../scenario/units.ts';
-import { readListOption, readNumberOption, type StudyChart, type StudyDefinition, type StudyOutput } from './definition.ts';
+import { readListOption, type StudyChart, type StudyDefinition, type StudyOutput, optionReaders } from './definition.ts';
 import { transferAt, type SpectraResult } from './jobs.ts';
 import { fitLine, unwrapDegrees } from './phase-fit.ts';
 import type { StudyPool } from './pool.ts';
@@ -257,11 +257,7 @@ export const resolutionStudy: StudyDefinition<ResolutionStudyOptions, Resolution
   ],
   readOptions(values) {
     const problems: string[] = [];
-    const num = (name: string, unit: string, example: string) => {
-      const r = readNumberOption(name, values[name], unit, example);
-      if (r.problem) problems.push(r.problem);
-      return r.value;
-    };
+    const { num } = optionReaders(values, problems);
     const dims = values.dims === undefined || values.dims === '' ? undefined : Number(values.dims);
     if (dims !== undefined && dims !== 2 && dims !== 3) problems.push(`dims: "${values.dims}" is not 2 or 3; write 3 for the 3D projection`);
     const volume = readListOption('volume', values.volume, 'metres', '0.2,0.1,0.05');

@@ -11,7 +11,7 @@ import { complexRatioErrors } from '../compare/metrics.ts';
 import { layoutOf } from '../scenario/layout.ts';
 import type { CircleObject, Fill, Polarization, Scenario } from '../scenario/types.ts';
 import { formatSI, formatSig } from '../scenario/units.ts';
-import { readListOption, readNumberOption, type StudyChart, type StudyDefinition } from './definition.ts';
+import { readListOption, type StudyChart, type StudyDefinition, optionReaders } from './definition.ts';
 import { transferAt, type SpectraJob, type SpectraResult } from './jobs.ts';
 import { applyResolution, mediumWavelength, studyFrequency } from './resolution-plan.ts';
 
@@ -204,7 +204,7 @@ export const staircaseStudy: StudyDefinition<StaircaseOptions, StaircaseCandidat
   ],
   readOptions(values) {
     const problems: string[] = [];
-    const num = (name: string, unit: string, example: string) => { const r = readNumberOption(name, values[name], unit, example); if (r.problem) problems.push(r.problem); return r.value; };
+    const { num } = optionReaders(values, problems);
     const budget_dB = num('budget-db', 'dB', '0.5');
     const budget_deg = num('budget-deg', 'degrees', '5');
     const cells = readListOption('cells', values.cells, 'cells per wavelength', '10, 20, 40');
