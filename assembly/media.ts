@@ -56,6 +56,8 @@
 // wasm), so the two builds agree bit for bit; test/engine/media-simd-scalar.test.ts checks it.
 
 // ---- grid and coefficients ------------------------------------------------------------
+import { fullDftPass, maxAbsOf, prepareFullWeights, recordPoints } from './running-dft';
+
 let nx: i32 = 0;
 let ny: i32 = 0;
 let layer: i32 = 0; // CPML cells per side
@@ -1375,64 +1377,6 @@ function fusedRow(j: i32): void {
   if (rightStart < nx) stripFusedRange(j, rightStart, nx, leftEnd);
 }
 
-// Running DFTs of the whole grid at the sample in hand: per frequency sampled, over every
-// node k, re += a·c, im −= a·s (float32), with (c, s) the sample's weighted cosine and
-// sine. One contiguous pass per frequency after the sweep: long streams run at memory speed,
-// where row-sized pieces between the field updates ran at half of it. Each node sees the same
-// operations in either build.
-function fullDftPass(): void {
-  const total = nx * ny;
-  for (let q = 0; q < fullActive; q++) {
-    const w = fullWeights + (<usize>q << 4);
-    const c = load<f32>(w, 4);
-    const s = load<f32>(w, 8);
-    const re = fullRe + (<usize>(2 * load<i32>(w))) * fullStride;
-    const im = re + fullStride;
-    let k = 0;
-    if (ASC_FEATURE_SIMD) {
-      const cv = f32x4.splat(c);
-      const sv = f32x4.splat(s);
-      for (; k + 16 <= total; k += 16) {
-        const o = <usize>k << 2;
-        const v0 = v128.load(a + o);
-        const v1 = v128.load(a + o, 16);
-        const v2 = v128.load(a + o, 32);
-        const v3 = v128.load(a + o, 48);
-        v128.store(re + o, f32x4.add(v128.load(re + o), f32x4.mul(v0, cv)));
-        v128.store(re + o, f32x4.add(v128.load(re + o, 16), f32x4.mul(v1, cv)), 16);
-        v128.store(re + o, f32x4.add(v128.load(re + o, 32), f32x4.mul(v2, cv)), 32);
-        v128.store(re + o, f32x4.add(v128.load(re + o, 48), f32x4.mul(v3, cv)), 48);
-        v128.store(im + o, f32x4.sub(v128.load(im + o), f32x4.mul(v0, sv)));
-        v128.store(im + o, f32x4.sub(v128.load(im + o, 16), f32x4.mul(v1, sv)), 16);
-        v128.store(im + o, f32x4.sub(v128.load(im + o, 32), f32x4.mul(v2, sv)), 32);
-        v128.store(im + o, f32x4.sub(v128.load(im + o, 48), f32x4.mul(v3, sv)), 48);
-      }
-    }
-    for (; k < total; k++) {
-      const v = f32At(a, k);
-      f32Set(re, k, f32At(re, k) + v * c);
-      f32Set(im, k, f32At(im, k) - v * s);
-    }
-  }
-}
-
-// The full-grid DFTs that take sample n, with its weights m·cos(ωn·dt), m·sin(ωn·dt) (a
-// sample stands for m steps; src/exact/dft-decimation.ts says why that holds).
-function prepareFullWeights(n: i32): void {
-  let active = 0;
-  for (let f = 0; f < fullCount; f++) {
-    const entry = fullTable + (<usize>f << 4);
-    const m = max(load<i32>(entry, 8), 1);
-    if (n % m != load<i32>(entry, 12)) continue;
-    const phase = load<f64>(entry) * <f64>n;
-    const w = fullWeights + (<usize>active << 4);
-    store<i32>(w, f);
-    store<f32>(w, <f32>(<f64>m * Math.cos(phase)), 4);
-    store<f32>(w, <f32>(<f64>m * Math.sin(phase)), 8);
-    active++;
-  }
-  fullActive = active;
-}
 
 // ---- one time step ------------------------------------------------------------------------
 
@@ -1472,45 +1416,11 @@ function sweep(n: i32): void {
   }
   // The full-grid DFTs take the field at step n+1, source included, once the sweep is done.
   if (fullCount > 0) {
-    prepareFullWeights(n + 1);
-    if (fullActive > 0) fullDftPass();
+    fullActive = prepareFullWeights(fullTable, fullCount, fullWeights, n + 1);
+    if (fullActive > 0) fullDftPass(a, nx * ny, fullWeights, fullActive, fullRe, fullStride);
   }
 }
 
-// Probe series and running DFTs at the listed points, for a sample n.
-function record(n: i32): void {
-  if (n < seriesLength) {
-    for (let p = 0; p < probeCount; p++) {
-      const k = i32At(probeIndex, p);
-      f32Set(series, p * seriesLength + n, f32At(a, k));
-    }
-  }
-  if (frequencyCount == 0) return;
-  for (let p = 0; p < pointCount; p++) {
-    store<f64>(pointValue + (<usize>p << 3), <f64>f32At(a, i32At(pointIndex, p)));
-  }
-  for (let f = 0; f < frequencyCount; f++) {
-    const phase = load<f64>(omegaDt + (<usize>f << 3)) * <f64>n;
-    const cs = Math.cos(phase);
-    const sn = Math.sin(phase);
-    let acc = dft + ((<usize>f * <usize>pointCount) << 4);
-    let p = 0;
-    if (ASC_FEATURE_SIMD) {
-      const w = f64x2(cs, -sn);
-      for (; p < pointCount; p++) {
-        const v = f64x2.splat(load<f64>(pointValue + (<usize>p << 3)));
-        v128.store(acc, f64x2.add(v128.load(acc), f64x2.mul(v, w)));
-        acc += 16;
-      }
-    }
-    for (; p < pointCount; p++) {
-      const v = load<f64>(pointValue + (<usize>p << 3));
-      store<f64>(acc, load<f64>(acc) + v * cs);
-      store<f64>(acc + 8, load<f64>(acc + 8) - v * sn);
-      acc += 16;
-    }
-  }
-}
 
 /** Advances `count` time steps: b and c to n+½, a to n+1 with the source at (n+½)dt. */
 export function step(count: i32): void {
@@ -1520,19 +1430,11 @@ export function step(count: i32): void {
     const n = stepCount;
     sweep(n);
     stepCount = n + 1;
-    record(n + 1);
+    recordPoints(a, n + 1, seriesLength, probeCount, probeIndex, series, frequencyCount, pointCount, pointIndex, pointValue, omegaDt, dft);
   }
 }
 
 /** Largest |a| over the grid; NaN if any node is NaN (blow-up detection). */
 export function maxAbsA(): f32 {
-  let m: f32 = 0;
-  const total = nx * ny;
-  for (let k = 0; k < total; k++) {
-    const v = f32At(a, k);
-    if (v != v) return NaN;
-    const x = Mathf.abs(v);
-    if (x > m) m = x;
-  }
-  return m;
+  return maxAbsOf(a, nx * ny);
 }
