@@ -1,4 +1,4 @@
-import { fullGridDftCount, stripVectorsPerRow, type MemoryInput } from './memory.ts';
+import { claimedBytes, recordingBlocks, stripVectorsPerRow, type MemoryInput } from './memory.ts';
 
 /**
  * What the media engine's memory depends on beyond the lossless engine's: the polarization,
@@ -42,7 +42,6 @@ export interface MediaMemoryInput extends MemoryInput {
  *   poolSlots: 0, sourceCorrections: 1, pecRuns: [0, 0, 0], maskRows: 0 }); // 211280
  */
 export function mediaMemoryBytes(m: MediaMemoryInput): number {
-  const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
   const cells = m.nx * m.ny;
   const strip = stripVectorsPerRow(m.nx, m.cells);
   const rowVectors = Math.ceil(m.nx / 4);
@@ -66,12 +65,7 @@ export function mediaMemoryBytes(m: MediaMemoryInput): number {
     m.pecRuns[0] * 8, m.pecRuns[1] * 8, m.pecRuns[2] * 8,
     (m.ny + 1) * 4, (m.ny + 1) * 4, (m.ny + 1) * 4,
     m.ny * 4, m.maskRows * m.nx * 8, m.maskRows * 8,
-    m.steps * 8,
-    m.probes * 4, m.probes * (m.steps + 1) * 4,
-    m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
-    ...Array<number>(2 * fullGridDftCount(m.fullGridDft)).fill(cells * 4),
+    ...recordingBlocks(m),
   ];
-  // The last block is counted to its end, not to the end of its line.
-  const last = blocks.pop() as number;
-  return blocks.reduce((sum, b) => sum + line(b), 0) + last;
+  return claimedBytes(blocks);
 }

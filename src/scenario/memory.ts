@@ -35,8 +35,26 @@ export function stripVectorsPerRow(nx: number, cells: number): number {
   return Math.ceil((left + nx - right) / 4);
 }
 
-export function engineMemoryBytes(m: MemoryInput): number {
+/**
+ * The blocks both engines claim last, in their order: source samples, probe indices and
+ * series, DFT point indices, values, ω·dt and sums, and the full-grid DFTs.
+ */
+export function recordingBlocks(m: MemoryInput): number[] {
+  return [
+    m.steps * 8,
+    m.probes * 4, m.probes * (m.steps + 1) * 4,
+    m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
+    ...Array<number>(2 * fullGridDftCount(m.fullGridDft)).fill(m.nx * m.ny * 4),
+  ];
+}
+
+/** Bytes an engine claims for `blocks` in order: each starts on a 64-byte line; the last is counted to its end. */
+export function claimedBytes(blocks: readonly number[]): number {
   const line = (bytes: number) => Math.ceil(bytes / 64) * 64;
+  return blocks.slice(0, -1).reduce((sum, b) => sum + line(b), 0) + (blocks[blocks.length - 1] ?? 0);
+}
+
+export function engineMemoryBytes(m: MemoryInput): number {
   const cells = m.nx * m.ny;
   const strip = stripVectorsPerRow(m.nx, m.cells);
   const blocks = [
@@ -46,12 +64,7 @@ export function engineMemoryBytes(m: MemoryInput): number {
     strip * 96, // x-strip coefficients regrouped by vector
     m.ny * strip * 32, // ψ of the x strips: 4 Hy and 4 Ez values per vector of columns
     2 * m.cells * Math.ceil(m.nx / 4) * 32, // ψ of the y strips: 4 Hx and 4 Ez values per vector
-    m.steps * 8,
-    m.probes * 4, m.probes * (m.steps + 1) * 4,
-    m.dftPoints * 4, m.dftPoints * 8, m.frequencies * 8, m.dftPoints * m.frequencies * 16,
-    ...Array<number>(2 * fullGridDftCount(m.fullGridDft)).fill(cells * 4),
+    ...recordingBlocks(m),
   ];
-  // The last block is counted to its end, not to the end of its line.
-  const last = blocks.pop() as number;
-  return blocks.reduce((sum, b) => sum + line(b), 0) + last;
+  return claimedBytes(blocks);
 }
