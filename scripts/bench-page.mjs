@@ -14,7 +14,7 @@
 //     1000² run (the machine may be shared: each run is set against the engine figure of
 //     the same moment, and the median of those ratios is reported), and from
 //     `gridgauge bench --json` in Node unless --no-cli-bench.
-// Usage: node scripts/bench-page.mjs [--json] [--repeats N] [--big-runs N] [--no-cli-bench]   (npm run bench:page builds dist/ first)
+// Usage: node scripts/bench-page.mjs [--json] [--repeats N] [--big-runs N] [--no-cli-bench] [--off-screen]   (npm run bench:page builds dist/ first)
 import { execFileSync } from 'node:child_process';
 import { loadavg } from 'node:os';
 import { register } from 'tsx/esm/api';
@@ -26,6 +26,8 @@ const { demoScenario } = await import('../src/scenario/defaults.ts');
 const args = process.argv.slice(2);
 const json = args.includes('--json');
 const cliBench = !args.includes('--no-cli-bench');
+// --off-screen: the 1000² runs with the Results section on show, so the field view paints nothing
+const offScreen = args.includes('--off-screen');
 const repeatsAt = args.indexOf('--repeats');
 const repeats = repeatsAt >= 0 ? Math.max(1, Number(args[repeatsAt + 1]) || 5) : 5;
 const bigAt = args.indexOf('--big-runs');
@@ -142,6 +144,10 @@ try {
     await page.evaluate(() => document.querySelector('gg-app').controller.whenReady());
     const ok = await page.evaluate(() => document.querySelector('gg-app').store.state.check.ok);
     if (!ok) throw new Error('the 1000 × 1000 scenario did not validate in the page');
+    if (offScreen) {
+      await page.getByRole('tab', { name: 'Results' }).click();
+      await page.waitForTimeout(300);
+    }
     for (let k = 0; k < bigRuns; k++) {
       const before = await mainThreadCosts(page);
       const compareMs = await pressRunAndWait(page);
